@@ -1,0 +1,14 @@
+import { NextResponse } from 'next/server';
+import { withErrors, readJson, HttpError } from '@/lib/http/errors';
+import { registerSchema } from '@/lib/schemas/account';
+import { register } from '@/lib/account/flows';
+import { clientAddress, overLimit } from '@/lib/rate-limit';
+
+export const POST = withErrors(async (req: Request) => {
+  if (await overLimit(`register:${clientAddress(req.headers)}`, 20, 3600)) {
+    throw new HttpError(429, 'Too many sign-ups from this address; try again in an hour.');
+  }
+  const input = registerSchema.parse(await readJson(req));
+  const user = await register(input);
+  return NextResponse.json({ id: user.id, email: user.email, confirmationSent: true }, { status: 201 });
+});

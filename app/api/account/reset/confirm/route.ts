@@ -1,0 +1,10 @@
+import { NextResponse } from 'next/server';
+import { withErrors, readJson } from '@/lib/http/errors';
+import { resetConfirmSchema } from '@/lib/schemas/account';
+import { resetPassword } from '@/lib/account/flows';
+
+export const POST = withErrors(async (req: Request) => {
+  const { token, password } = resetConfirmSchema.parse(await readJson(req));
+  await resetPassword(token, password);
+  return NextResponse.json({ reset: true });
+});

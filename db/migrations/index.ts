@@ -1,0 +1,11 @@
+import type { MigrationContext } from '../migrator';
+import foundation from './0001_foundation';
+
+export type Migration = {
+  name: string;
+  up: (ctx: MigrationContext) => Promise<void>;
+  down: (ctx: MigrationContext) => Promise<void>;
+};
+
+// Append new migrations here, in order; never edit one that has shipped.
+export const migrations: Migration[] = [foundation];

@@ -1,0 +1,71 @@
+import { NextResponse } from 'next/server';
+import { ZodError } from 'zod';
+
+export type ErrorDetail = { line?: number; field?: string; message: string };
+
+// Every refusal carries an API.md status and one readable sentence.
+export class HttpError extends Error {
+  constructor(
+    public status: number,
+    message: string,
+    public details: ErrorDetail[] = [],
+  ) {
+    super(message);
+  }
+}
+
+export const badRequest = (m: string, d?: ErrorDetail[]) => new HttpError(400, m, d);
+export const unauthorised = (m = 'Sign in first.') => new HttpError(401, m);
+export const forbidden = (m = 'Your role does not allow this.') => new HttpError(403, m);
+export const notFound = (m = 'Not found.') => new HttpError(404, m);
+export const conflict = (m: string) => new HttpError(409, m);
+export const unprocessable = (m: string, d?: ErrorDetail[]) => new HttpError(422, m, d);
+
+export function zodDetails(err: ZodError): ErrorDetail[] {
+  return err.issues.map((i) => ({ field: i.path.join('.') || undefined, message: i.message }));
+}
+
+type StatusCarrier = { status: number; message: string; details?: unknown };
+
+function carriesStatus(err: unknown): err is StatusCarrier {
+  return (
+    typeof err === 'object' && err !== null && typeof (err as StatusCarrier).status === 'number' &&
+    (err as StatusCarrier).status >= 400 && (err as StatusCarrier).status < 500 && typeof (err as StatusCarrier).message === 'string'
+  );
+}
+
+export function errorResponse(err: unknown): NextResponse {
+  if (err instanceof ZodError) {
+    const details = zodDetails(err);
+    const first = details[0];
+    const where = first?.field ? ` (${first.field})` : '';
+    return NextResponse.json({ error: `The request is not valid: ${first?.message ?? 'bad input'}${where}.`, details }, { status: 422 });
+  }
+  // Engine and reader errors carry their own 4xx status and details.
+  if (err instanceof HttpError || carriesStatus(err)) {
+    const e = err as StatusCarrier;
+    return NextResponse.json({ error: e.message, details: Array.isArray(e.details) ? e.details : [] }, { status: e.status });
+  }
+  console.error(err);
+  return NextResponse.json({ error: 'Something went wrong on our side; nothing was saved.', details: [] }, { status: 500 });
+}
+
+export function withErrors<A extends unknown[]>(fn: (...args: A) => Promise<Response>) {
+  return async (...args: A): Promise<Response> => {
+    try {
+      return await fn(...args);
+    } catch (err) {
+      return errorResponse(err);
+    }
+  };
+}
+
+export async function readJson(req: Request): Promise<unknown> {
+  const text = await req.text();
+  if (!text.trim()) throw badRequest('The request body is empty; send JSON.');
+  try {
+    return JSON.parse(text);
+  } catch {
+    throw badRequest('The request body is not valid JSON.');
+  }
+}

@@ -1,0 +1,49 @@
+import { z } from 'zod';
+
+export const LINE_IDS = ['Ha', 'Hb', 'Hg', 'OIII', 'OIII-496', 'NII-658', 'NII-655', 'SII-671', 'SII-673', 'HeII', 'OI', 'ArIII', 'OII'] as const;
+export const INSTRUMENTS = ['spectrophotometer', 'spectrograph', 'monochromator', 'other'] as const;
+
+const positive = (what: string) => z.number({ error: `${what} must be a number` }).positive(`${what} must be above 0`);
+const optionalText = (max: number) => z.string().trim().max(max).optional().transform((v) => (v ? v : undefined));
+
+// One schema for the upload form and the route handler (API.md, Submissions).
+export const methodSchema = z
+  .object({
+    instrument: z.enum(INSTRUMENTS, { error: 'Choose the instrument kind' }),
+    resolutionNm: positive('Resolution').max(50, 'Resolution above 50 nm cannot resolve a narrowband filter'),
+    beam: z.enum(['collimated', 'converging'], { error: 'Say whether the beam was collimated or converging' }),
+    beamFNumber: z.number().min(0.5).max(100).optional(),
+    aoiDeg: z.number({ error: 'AOI must be a number' }).min(0, 'AOI cannot be negative').max(60, 'AOI above 60° is outside what we model'),
+    temperatureC: z.number().min(-60).max(80).optional(),
+    polarization: z.enum(['unpolarized', 's', 'p']).optional(),
+    measuredOn: z.iso.date({ error: 'Use a date like 2026-03-14' }).optional(),
+    lab: optionalText(200),
+  })
+  .refine((m) => m.beam !== 'converging' || m.beamFNumber !== undefined, {
+    message: 'A converging beam needs its f-number: the cone itself shifts and widens the passband',
+    path: ['beamFNumber'],
+  });
+
+export const submissionMetadataSchema = z.object({
+  label: z.string().trim().min(3, 'Give the filter a label (maker and model as written on it)').max(200),
+  lines: z.array(z.enum(LINE_IDS)).min(1, 'Pick at least one target line'),
+  nominalCwlNm: positive('Nominal CWL').min(200).max(2500),
+  nominalFwhmNm: positive('Nominal FWHM').max(200),
+  declaredPreShiftNm: z.number().min(-10).max(20).optional(),
+  serial: optionalText(100),
+  sizeMm: optionalText(50),
+  notes: optionalText(4000),
+  licence: z.enum(['CC-BY-4.0', 'CC0-1.0']).default('CC-BY-4.0'),
+  method: methodSchema,
+  files: z.array(z.object({ name: z.string().min(1).max(255), aoiDeg: z.number().min(0).max(60) })).max(20).optional(),
+});
+
+export type SubmissionMetadata = z.output<typeof submissionMetadataSchema>;
+export type SubmissionMetadataInput = z.input<typeof submissionMetadataSchema>;
+
+export const reviewDecisionSchema = z.object({
+  decision: z.enum(['verify', 'request_changes', 'reject'], { error: 'decision must be verify, request_changes or reject' }),
+  note: z.string().trim().max(4000).default(''),
+}).refine((d) => d.decision === 'verify' || d.note.length > 0, { message: 'Say why in the note', path: ['note'] });
+
+export const threadReplySchema = z.object({ body: z.string().trim().min(1, 'Write something').max(4000) });

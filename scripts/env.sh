@@ -1,0 +1,125 @@
+# Shared set-up for start.sh and test.sh: sourced, not run.
+# Installs what is missing, runs a private PostgreSQL cluster on loopback, and
+# remembers what it started so the caller can stop exactly that.
+set -euo pipefail
+
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+cd "$ROOT"
+export NEXT_TELEMETRY_DISABLED=1
+PGBIN="${PGBIN:-/usr/lib/postgresql/15/bin}"
+STARTED_PIDS=()
+STARTED_CLUSTER=""
+
+log() { printf '\033[1m[bandcone]\033[0m %s\n' "$*"; }
+
+as_root() {
+  if [ "$(id -u)" = 0 ]; then "$@"; else sudo "$@"; fi
+}
+
+apt_install() {
+  log "installing $* from Debian's packages"
+  as_root apt-get update -qq
+  DEBIAN_FRONTEND=noninteractive as_root apt-get install -y -qq "$@" >/dev/null
+}
+
+ensure_postgres() {
+  if [ ! -x "$PGBIN/initdb" ]; then
+    apt_install postgresql-15 postgresql-contrib
+  fi
+  # Debian's package may start its own cluster on 5432; ours is separate and needs nothing from it.
+}
+
+ensure_node_modules() {
+  local stamp=node_modules/.package-lock.json
+  if [ ! -d node_modules ] || [ ! -f "$stamp" ] || [ package-lock.json -nt "$stamp" ]; then
+    log "installing npm packages (npm ci)"
+    npm ci --no-audit --no-fund
+  fi
+}
+
+ensure_chromium() {
+  if [ ! -x /usr/bin/chromium ]; then
+    apt_install chromium
+  fi
+}
+
+# Run a PostgreSQL tool as the cluster's owner: PostgreSQL refuses to run as root.
+pg_as_owner() {
+  if [ "$(id -u)" = 0 ]; then runuser -u postgres -- "$@"; else "$@"; fi
+}
+
+# start_cluster DATA_DIR PORT — creates the cluster on first use, then (re)uses it.
+start_cluster() {
+  local dir="$1" port="$2"
+  mkdir -p "$dir"
+  if [ "$(id -u)" = 0 ]; then chown postgres:postgres "$dir"; chmod 700 "$dir"; fi
+  if [ ! -f "$dir/PG_VERSION" ]; then
+    log "creating a PostgreSQL cluster in $dir"
+    local pwfile; pwfile="$(mktemp)"; echo "$PGPASSWORD" > "$pwfile"
+    chmod 644 "$pwfile"
+    pg_as_owner "$PGBIN/initdb" -D "$dir" -U postgres --auth=scram-sha-256 --pwfile="$pwfile" \
+      --encoding=UTF8 --locale=C.UTF-8 >/dev/null
+    rm -f "$pwfile"
+  fi
+  if pg_as_owner "$PGBIN/pg_ctl" -D "$dir" status >/dev/null 2>&1; then
+    log "PostgreSQL already running on 127.0.0.1:$port"
+  else
+    log "starting PostgreSQL on 127.0.0.1:$port"
+    pg_as_owner "$PGBIN/pg_ctl" -D "$dir" -w -t 60 -l "$dir/server.log" \
+      -o "-p $port -c listen_addresses=127.0.0.1 -k $dir -c shared_buffers=256MB -c max_connections=100" start >/dev/null
+    STARTED_CLUSTER="$dir"
+  fi
+}
+
+stop_started() {
+  local pid
+  for pid in "${STARTED_PIDS[@]:-}"; do
+    [ -n "$pid" ] && kill "$pid" 2>/dev/null || true
+  done
+  for pid in "${STARTED_PIDS[@]:-}"; do
+    [ -n "$pid" ] && wait "$pid" 2>/dev/null || true
+  done
+  if [ -n "$STARTED_CLUSTER" ]; then
+    pg_as_owner "$PGBIN/pg_ctl" -D "$STARTED_CLUSTER" -m fast stop >/dev/null 2>&1 || true
+  fi
+}
+
+# ensure_database NAME [fresh] — creates it, or drops and recreates it when asked.
+ensure_database() {
+  local name="$1" fresh="${2:-}"
+  local psql=(psql -h 127.0.0.1 -p "$PGPORT" -U postgres -v ON_ERROR_STOP=1 -qtA)
+  if [ "$fresh" = fresh ]; then
+    "${psql[@]}" -d postgres -c "DROP DATABASE IF EXISTS \"$name\" WITH (FORCE)" >/dev/null
+  fi
+  if [ -z "$("${psql[@]}" -d postgres -c "SELECT 1 FROM pg_database WHERE datname = '$name'")" ]; then
+    "${psql[@]}" -d postgres -c "CREATE DATABASE \"$name\"" >/dev/null
+  fi
+}
+
+# A secret that survives restarts, so sessions stay valid across a second run.
+ensure_secret() {
+  local file="$ROOT/.data/auth-secret"
+  mkdir -p "$ROOT/.data"
+  [ -f "$file" ] || head -c 32 /dev/urandom | base64 > "$file"
+  export NEXTAUTH_SECRET="${NEXTAUTH_SECRET:-$(cat "$file")}"
+}
+
+wait_for_http() {
+  local url="$1" tries="${2:-120}"
+  for _ in $(seq "$tries"); do
+    if curl -fsS -o /dev/null "$url" 2>/dev/null; then return 0; fi
+    sleep 0.5
+  done
+  return 1
+}
+
+# Rebuild only when a source file is newer than the last build.
+build_if_stale() {
+  if [ -f .next/BUILD_ID ] && [ -z "$(find app components lib db moderation seeds public next.config.ts tailwind.config.ts package-lock.json \
+        -newer .next/BUILD_ID -type f 2>/dev/null | head -n 1)" ]; then
+    log "build is up to date"
+  else
+    log "building the app (next build)"
+    npx next build >"$ROOT/.data/build.log" 2>&1 || { tail -n 60 "$ROOT/.data/build.log"; return 1; }
+  fi
+}
