@@ -4,6 +4,8 @@ const nextConfig: NextConfig = {
   // The database and mail stacks load dynamic modules that must stay out of the bundle.
   serverExternalPackages: ['sequelize', 'pg', 'pg-hstore', 'nodemailer', 'bcryptjs'],
   poweredByHeader: false,
+  // Lets several checkouts' builds (e.g. parallel test runs) live side by side.
+  distDir: process.env.NEXT_DIST_DIR ?? '.next',
   // scripts/test.sh runs `tsc --noEmit` over the whole tree; the build need not repeat it.
   typescript: { ignoreBuildErrors: true },
 };

@@ -115,11 +115,12 @@ wait_for_http() {
 
 # Rebuild only when a source file is newer than the last build.
 build_if_stale() {
-  if [ -f .next/BUILD_ID ] && [ -z "$(find app components lib db moderation seeds public next.config.ts tailwind.config.ts package-lock.json \
-        -newer .next/BUILD_ID -type f 2>/dev/null | head -n 1)" ]; then
+  local dist="${NEXT_DIST_DIR:-.next}"
+  if [ -f "$dist/BUILD_ID" ] && [ -z "$(find app components lib db moderation seeds public next.config.ts tailwind.config.ts package-lock.json \
+        -newer "$dist/BUILD_ID" -type f 2>/dev/null | head -n 1)" ]; then
     log "build is up to date"
   else
     log "building the app (next build)"
-    npx next build >"$ROOT/.data/build.log" 2>&1 || { tail -n 60 "$ROOT/.data/build.log"; return 1; }
+    npx next build >"$ROOT/.data/build-${dist//\//_}.log" 2>&1 || { tail -n 60 "$ROOT/.data/build-${dist//\//_}.log"; return 1; }
   fi
 }

@@ -23,7 +23,8 @@ ensure_postgres
 ensure_node_modules
 ensure_chromium
 ensure_secret
-start_cluster "$ROOT/.data/pg-test" "$PGPORT"
+TEST_DATA="${BANDCONE_TEST_DATA:-$ROOT/.data/pg-test}"
+start_cluster "$TEST_DATA" "$PGPORT"
 ensure_database "$DB_NAME" fresh
 log "migrating the throwaway database"
 npx tsx db/migrate.ts up
@@ -32,16 +33,16 @@ npx tsx seeds/run.ts
 log "type-checking"
 npx tsc --noEmit
 
-SMTP_CATCHER_PORT="$SMTP_PORT" npx tsx scripts/mail-catcher.ts > "$ROOT/.data/test-catcher.log" 2>&1 &
+SMTP_CATCHER_PORT="$SMTP_PORT" npx tsx scripts/mail-catcher.ts > "$ROOT/.data/test-catcher-$PORT.log" 2>&1 &
 STARTED_PIDS+=($!)
 
 build_if_stale
-npx next start -H 127.0.0.1 -p "$PORT" > "$ROOT/.data/test-server.log" 2>&1 &
+npx next start -H 127.0.0.1 -p "$PORT" > "$ROOT/.data/test-server-$PORT.log" 2>&1 &
 STARTED_PIDS+=($!)
-wait_for_http "$TEST_BASE_URL/api/lines" 240 || { log "test server did not answer"; tail -n 40 "$ROOT/.data/test-server.log"; exit 1; }
+wait_for_http "$TEST_BASE_URL/api/lines" 240 || { log "test server did not answer"; tail -n 40 "$ROOT/.data/test-server-$PORT.log"; exit 1; }
 
 log "running every test"
 status=0
-npx vitest run --reporter=default --reporter=json --outputFile="$ROOT/.data/vitest.json" "$@" || status=$?
-node scripts/test-summary.mjs "$ROOT/.data/vitest.json" || true
+npx vitest run --reporter=default --reporter=json --outputFile="$ROOT/.data/vitest-$PORT.json" "$@" || status=$?
+node scripts/test-summary.mjs "$ROOT/.data/vitest-$PORT.json" || true
 exit "$status"

@@ -26,6 +26,7 @@ export const methodSchema = z
 
 export const submissionMetadataSchema = z.object({
   label: z.string().trim().min(3, 'Give the filter a label (maker and model as written on it)').max(200),
+  maker: optionalText(120),
   lines: z.array(z.enum(LINE_IDS)).min(1, 'Pick at least one target line'),
   nominalCwlNm: positive('Nominal CWL').min(200).max(2500),
   nominalFwhmNm: positive('Nominal FWHM').max(200),

@@ -1,0 +1,61 @@
+import { NextResponse } from 'next/server';
+import { withErrors, readJson, HttpError, badRequest } from '@/lib/http/errors';
+import { readCurveText, MAX_FILE_BYTES } from '@/lib/engine/reader';
+import { cleanPoints } from '@/lib/engine/curve';
+import { computeMetrics } from '@/lib/engine/metrics';
+import { runChecks } from '@/lib/engine/checks';
+import { pointsSchema, readerOptionsSchema } from '@/lib/schemas/model';
+import { submissionMetadataSchema } from '@/lib/schemas/submission';
+import { clientAddress, overLimit } from '@/lib/rate-limit';
+
+const PER_MINUTE = Number(process.env.PREVIEW_RATE_PER_MINUTE ?? 120);
+
+function parseJsonField(raw: FormDataEntryValue | null, what: string): unknown {
+  if (raw === null || raw === '') return undefined;
+  if (typeof raw !== 'string') throw badRequest(`The "${what}" field must be JSON text.`);
+  try {
+    return JSON.parse(raw);
+  } catch {
+    throw badRequest(`The "${what}" field is not valid JSON.`);
+  }
+}
+
+// Stores nothing: reads a file (or points), derives the numbers and runs the checks.
+export const POST = withErrors(async (req: Request) => {
+  if (await overLimit(`preview:${clientAddress(req.headers)}`, PER_MINUTE, 60)) {
+    throw new HttpError(429, 'Too many previews from this address; wait a minute.');
+  }
+  const type = req.headers.get('content-type') ?? '';
+  let read: { points: { wavelengthNm: number[]; transmission: number[] }; assumed?: unknown; warnings: string[] };
+  let metadata: unknown;
+  if (type.startsWith('multipart/form-data')) {
+    if (Number(req.headers.get('content-length') ?? 0) > MAX_FILE_BYTES + 256 * 1024) throw new HttpError(413, 'The file is over 5 MB.');
+    const form = await req.formData().catch(() => {
+      throw badRequest('The multipart body could not be read.');
+    });
+    const file = form.get('file');
+    if (!file || typeof file === 'string') throw badRequest('Attach the data file in the "file" field.');
+    if (file.size > MAX_FILE_BYTES) throw new HttpError(413, `${file.name} is ${(file.size / 1048576).toFixed(1)} MB; the limit is 5 MB.`);
+    const options = readerOptionsSchema.parse(parseJsonField(form.get('options'), 'options') ?? {});
+    metadata = parseJsonField(form.get('metadata'), 'metadata');
+    const r = readCurveText(new Uint8Array(await file.arrayBuffer()), options);
+    read = { points: r.points, assumed: r.assumed, warnings: r.warnings };
+  } else {
+    const body = (await readJson(req)) as { points?: unknown; metadata?: unknown };
+    const points = pointsSchema.parse(body?.points);
+    metadata = body?.metadata;
+    const cleaned = cleanPoints(points);
+    read = { points: cleaned.points, warnings: cleaned.warnings };
+  }
+  const metrics = computeMetrics(read.points);
+  const meta = metadata === undefined ? undefined : submissionMetadataSchema.partial().safeParse(metadata);
+  const checks = runChecks({ metrics, metadata: meta?.success ? meta.data : undefined });
+  const { warnings: metricWarnings, sampleCount, medianStepNm, rangeNm, ...rest } = metrics;
+  return NextResponse.json({
+    points: read.points,
+    assumed: read.assumed ?? null,
+    metrics: { ...rest, rangeNm, sampleCount, medianStepNm },
+    checks,
+    warnings: [...read.warnings, ...metricWarnings],
+  });
+});

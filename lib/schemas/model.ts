@@ -1,0 +1,55 @@
+import { z } from 'zod';
+
+const finite = (what: string) => z.number({ error: `${what} must be a number` }).refine(Number.isFinite, `${what} must be finite`);
+
+export const pointsSchema = z
+  .object({
+    wavelengthNm: z.array(finite('wavelengthNm')).min(5, 'At least 5 points are needed').max(200_000, 'At most 200 000 points'),
+    transmission: z.array(finite('transmission')).min(5, 'At least 5 points are needed').max(200_000, 'At most 200 000 points'),
+  })
+  .refine((p) => p.wavelengthNm.length === p.transmission.length, { message: 'wavelengthNm and transmission must have the same length' });
+
+export const opticSchema = z.object({
+  fNumber: z.number({ error: 'optic.fNumber must be a number' }).min(0.5, 'f-number must be at least 0.5').max(40, 'f-number must be at most 40'),
+  obstruction: z.number({ error: 'optic.obstruction must be a number' }).min(0, 'obstruction cannot be negative').lt(1, 'obstruction must be below 1').default(0),
+  fieldAngleDeg: z.number().min(0, 'field angle cannot be negative').max(30, 'field angle must be at most 30°').optional(),
+  mapping: z.enum(['tangent', 'sine']).optional(),
+});
+
+// API.md, POST /api/model/cone.
+export const coneRequestSchema = z
+  .object({
+    curveId: z.number().int().positive().optional(),
+    points: pointsSchema.optional(),
+    optic: opticSchema,
+    nEff: z.number({ error: 'nEff is required (typical 1.5–2.3)' }).min(1, 'nEff must be between 1.0 and 4.0').max(4, 'nEff must be between 1.0 and 4.0'),
+    measuredAoiDeg: z.number().min(0).max(60).optional(),
+    preShiftNm: z.number().min(-50).max(50).optional(),
+    tempCoeffNmPerC: z.number().min(-1).max(1).optional(),
+    tempC: z.number().min(-80).max(100).optional(),
+    refTempC: z.number().min(-80).max(100).optional(),
+    lines: z.array(z.string()).max(20).optional(),
+    lineNm: z.number().positive().max(5000).optional(),
+    radialVelocityKms: z.number().min(-30_000).max(30_000).optional(),
+    includeCurve: z.boolean().optional(),
+  })
+  .refine((b) => (b.curveId === undefined) !== (b.points === undefined), { message: 'Send either curveId or points, not both and not neither', path: ['curveId'] });
+
+export const neffRequestSchema = z
+  .object({
+    measurements: z.array(z.object({ aoiDeg: z.number().min(0).max(60), cwlNm: z.number().positive() })).min(2).max(200).optional(),
+    curveIds: z.array(z.number().int().positive()).min(2).max(50).optional(),
+  })
+  .refine((b) => (b.measurements === undefined) !== (b.curveIds === undefined), { message: 'Send either measurements or curveIds' });
+
+export const readerOptionsSchema = z
+  .object({
+    wavelengthUnit: z.enum(['nm', 'angstrom', 'um']).optional(),
+    transmissionUnit: z.enum(['fraction', 'percent', 'od']).optional(),
+    delimiter: z.enum([',', ';', '\t', 'whitespace']).optional(),
+    decimalSeparator: z.enum(['.', ',']).optional(),
+    headerLines: z.number().int().min(0).max(1000).optional(),
+    wavelengthColumn: z.number().int().min(0).max(100).optional(),
+    transmissionColumn: z.number().int().min(0).max(100).optional(),
+  })
+  .strict();

@@ -1,0 +1,61 @@
+import { Op } from 'sequelize';
+import { db } from '@/db/models';
+import { audit } from '@/lib/audit';
+import { conflict, forbidden, notFound } from '@/lib/http/errors';
+import { hasRole, type Actor } from '@/lib/auth/actor';
+import { notifyContributorOfDecision, notifyOfNote } from './notify';
+
+export type Decision = 'verify' | 'request_changes' | 'reject';
+
+const NEXT_STATUS = { verify: 'verified', request_changes: 'changes_requested', reject: 'rejected' } as const;
+
+/**
+ * The row lock makes two moderators deciding at once safe: the second waits,
+ * then finds the submission no longer waiting and gets a 409.
+ */
+export async function decide(moderator: Pick<Actor, 'id' | 'role'>, submissionId: number, decision: Decision, note: string, options: { notify?: boolean } = {}) {
+  if (!hasRole(moderator as Actor, 'moderator')) throw forbidden('Only moderators decide on submissions.');
+  const { Submission, Curve, Review, User, sequelize } = db();
+  const outcome = await sequelize.transaction(async (transaction) => {
+    const submission = await Submission.findByPk(submissionId, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!submission) throw notFound('No such submission.');
+    if (submission.contributorId === moderator.id) throw forbidden('A moderator never decides on their own submission; another moderator must review it.');
+    if (submission.status !== 'submitted') throw conflict(`This submission is already ${submission.status.replace('_', ' ')}; reload the queue.`);
+    const status = NEXT_STATUS[decision];
+    const now = new Date();
+    await submission.update({ status, decidedAt: now }, { transaction });
+    const current = { submissionId, revision: submission.revision, status: 'submitted' };
+    await Curve.update({ status, ...(decision === 'verify' ? { verifiedAt: now } : {}) }, { where: current, transaction });
+    if (decision === 'verify' && submission.replacesCurveId) {
+      // The corrected curve replaces the old one in search; the old one stays readable by its id.
+      await Curve.update({ status: 'superseded' }, { where: { id: submission.replacesCurveId, status: 'verified' }, transaction });
+    }
+    await Review.create({ submissionId, authorId: moderator.id, kind: decision, body: note, isPublic: decision === 'verify' }, { transaction });
+    await audit(moderator.id, `submission.${decision}`, { type: 'submission', id: submissionId }, { note, revision: submission.revision }, transaction);
+    const contributor = await User.findByPk(submission.contributorId, { transaction, attributes: ['email'] });
+    return { status, label: submission.label, email: contributor?.email };
+  });
+  if (outcome.email && options.notify !== false) await notifyContributorOfDecision(submissionId, outcome.email, outcome.label, decision, note);
+  return { id: submissionId, status: outcome.status };
+}
+
+/** A note in the thread: the contributor answers, or a moderator asks without deciding. */
+export async function addNote(actor: Pick<Actor, 'id' | 'role' | 'name' | 'email'>, submissionId: number, body: string) {
+  const { Submission, Review, User } = db();
+  const submission = await Submission.findByPk(submissionId);
+  if (!submission) throw notFound('No such submission.');
+  const isOwner = submission.contributorId === actor.id;
+  const isModerator = hasRole(actor as Actor, 'moderator');
+  if (!isOwner && !isModerator) throw forbidden('Only the contributor and moderators take part in this thread.');
+  const review = await Review.create({ submissionId, authorId: actor.id, kind: isOwner ? 'reply' : 'note', body });
+  await audit(actor.id, 'submission.note', { type: 'submission', id: submissionId }, { kind: review.kind });
+  if (isOwner) {
+    const moderators = await Review.findAll({ where: { submissionId, kind: { [Op.ne]: 'reply' } }, include: [{ model: User, as: 'author', attributes: ['email'] }] });
+    const to = [...new Set(moderators.map((r) => (r as unknown as { author?: { email: string } }).author?.email).filter((e): e is string => !!e))];
+    await notifyOfNote(submissionId, to, submission.label, actor.name ?? actor.email, body, true);
+  } else {
+    const owner = await User.findByPk(submission.contributorId, { attributes: ['email'] });
+    if (owner) await notifyOfNote(submissionId, [owner.email], submission.label, actor.name ?? actor.email, body, false);
+  }
+  return { id: review.id, kind: review.kind, body: review.body, createdAt: review.createdAt };
+}

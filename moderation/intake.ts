@@ -1,0 +1,114 @@
+import { createHash } from 'node:crypto';
+import { Op } from 'sequelize';
+import { readCurveText, MAX_FILE_BYTES, MAX_ROWS } from '@/lib/engine/reader';
+import { computeMetrics } from '@/lib/engine/metrics';
+import { runChecks, normalisedPointsHash } from '@/lib/engine/checks';
+import { fitEffectiveIndex } from '@/lib/engine/neff';
+import { CurveReadError } from '@/lib/engine/errors';
+import type { CurvePoints, Metrics, Check } from '@/lib/engine/types';
+import { HttpError, unprocessable, type ErrorDetail } from '@/lib/http/errors';
+import type { SubmissionMetadata } from '@/lib/schemas/submission';
+import { db } from '@/db/models';
+
+export const MAX_FILES = 20;
+export { MAX_FILE_BYTES, MAX_ROWS };
+
+export type IncomingFile = { name: string; bytes: Buffer };
+
+export type ParsedFile = {
+  name: string;
+  bytes: Buffer;
+  sha256: string;
+  aoiDeg: number;
+  points: CurvePoints;
+  metrics: Metrics;
+  pointsHash: string;
+  assumed: unknown;
+};
+
+export type Intake = { files: ParsedFile[]; checks: (Check & { file?: string })[]; level: 'info' | 'warn' | 'error'; nEff: number | null };
+
+/** Refuses a whole upload before anything is written: limits first, then every file's content. */
+export function checkLimits(files: IncomingFile[]) {
+  if (files.length === 0) throw new HttpError(400, 'Attach at least one data file in the "file" field.');
+  if (files.length > MAX_FILES) throw new HttpError(413, `At most ${MAX_FILES} files per submission; this one has ${files.length}.`);
+  const big = files.find((f) => f.bytes.length > MAX_FILE_BYTES);
+  if (big) throw new HttpError(413, `${big.name} is ${(big.bytes.length / 1048576).toFixed(1)} MB; the limit is 5 MB a file.`);
+  const names = new Set<string>();
+  for (const f of files) {
+    if (names.has(f.name)) throw unprocessable(`Two files are named ${f.name}; rename one so each AOI can be told apart.`);
+    names.add(f.name);
+  }
+}
+
+function aoiFor(file: IncomingFile, metadata: SubmissionMetadata, count: number): number {
+  const mapped = metadata.files?.find((f) => f.name === file.name);
+  if (mapped) return mapped.aoiDeg;
+  if (count === 1) return metadata.method.aoiDeg;
+  throw unprocessable(`Give the AOI of ${file.name}: in a multi-angle set each file needs its own angle (metadata.files).`, [
+    { field: 'files', message: `no AOI for ${file.name}` },
+  ]);
+}
+
+export function parseFiles(files: IncomingFile[], metadata: SubmissionMetadata): ParsedFile[] {
+  checkLimits(files);
+  return files.map((file) => {
+    let read;
+    try {
+      read = readCurveText(new Uint8Array(file.bytes));
+    } catch (err) {
+      if (err instanceof CurveReadError) {
+        const details: ErrorDetail[] = err.details.map((d) => ({ ...d, message: `${file.name}: ${d.message}` }));
+        throw new HttpError(err.status, `${file.name}: ${err.message}`, details);
+      }
+      throw err;
+    }
+    const metrics = computeMetrics(read.points);
+    return {
+      name: file.name,
+      bytes: file.bytes,
+      sha256: createHash('sha256').update(file.bytes).digest('hex'),
+      aoiDeg: aoiFor(file, metadata, files.length),
+      points: read.points,
+      metrics,
+      pointsHash: createHash('sha256').update(normalisedPointsHash(read.points)).digest('hex'),
+      assumed: read.assumed,
+    };
+  });
+}
+
+const LEVEL_RANK = { info: 0, warn: 1, error: 2 } as const;
+
+/** The automatic checks, plus the one that needs the library: is this data already in it? */
+export async function assess(parsed: ParsedFile[], metadata: SubmissionMetadata, ignoreSubmissionId?: number): Promise<Intake> {
+  const set = parsed.length > 1 ? parsed.map((p) => ({ aoiDeg: p.aoiDeg, metrics: p.metrics })) : undefined;
+  const checks: Intake['checks'] = [];
+  parsed.forEach((p) => {
+    for (const c of runChecks({ metrics: p.metrics, metadata, aoiDeg: p.aoiDeg })) checks.push(parsed.length > 1 ? { ...c, file: p.name } : c);
+  });
+  if (set) checks.push(...runChecks({ metrics: parsed[0].metrics, metadata, set }).filter((c) => c.code.startsWith('set')));
+  const { Curve } = db();
+  const dupes = await Curve.findAll({
+    where: {
+      pointsHash: parsed.map((p) => p.pointsHash),
+      status: { [Op.ne]: 'superseded' },
+      ...(ignoreSubmissionId ? { submissionId: { [Op.ne]: ignoreSubmissionId } } : {}),
+    },
+    attributes: ['id', 'pointsHash', 'label'],
+  });
+  for (const d of dupes) {
+    const file = parsed.find((p) => p.pointsHash === d.pointsHash);
+    checks.push({ code: 'duplicate', level: 'warn', message: `The same points are already in the library as curve ${d.id} (${d.label}).`, file: file?.name });
+  }
+  let nEff: number | null = null;
+  if (set) {
+    try {
+      const angles = parsed.filter((p) => p.metrics.cwlNm !== null).map((p) => ({ aoiDeg: p.aoiDeg, cwlNm: p.metrics.cwlNm as number }));
+      nEff = fitEffectiveIndex(angles).nEff;
+    } catch {
+      nEff = null; // the set check above already says why
+    }
+  }
+  const level = checks.reduce<Intake['level']>((acc, c) => (LEVEL_RANK[c.level] > LEVEL_RANK[acc] ? c.level : acc), 'info');
+  return { files: parsed, checks, level, nEff };
+}
