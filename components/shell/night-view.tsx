@@ -7,7 +7,11 @@ export const NIGHT_VIEW_BOOT = `try{if(localStorage.getItem('${KEY}')==='night')
 
 export function NightViewToggle() {
   const [night, setNight] = useState(false);
-  useEffect(() => setNight(document.documentElement.dataset.view === 'night'), []);
+  const [ready, setReady] = useState(false);
+  useEffect(() => {
+    setNight(document.documentElement.dataset.view === 'night');
+    setReady(true);
+  }, []);
   function toggle() {
     const next = !night;
     setNight(next);
@@ -25,6 +29,7 @@ export function NightViewToggle() {
       type="button"
       onClick={toggle}
       aria-pressed={night}
+      data-ready={ready || undefined}
       className="rounded-card border border-rule px-2 py-1 text-sm hover:border-accent"
       title="Dim red on black, for use at the telescope"
     >

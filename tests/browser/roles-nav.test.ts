@@ -49,7 +49,8 @@ describe('each role sees its own navigation', () => {
     const context = await browser.newContext();
     const page = await context.newPage();
     await page.goto(BASE + '/');
-    await page.getByRole('button', { name: 'Night view' }).click();
+    await page.locator('button[data-ready]', { hasText: 'Night view' }).click();
+    await page.waitForFunction(() => document.documentElement.dataset.view === 'night');
     const bg = await page.evaluate(() => getComputedStyle(document.body).backgroundColor);
     expect(bg).toBe('rgb(0, 0, 0)');
     await page.reload();

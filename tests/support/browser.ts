@@ -11,8 +11,9 @@ export async function launch(): Promise<Browser> {
 
 export async function signInAs(page: Page, email: string, password = DEMO_PASSWORD) {
   await page.goto(`${BASE}/signin`);
-  await page.getByLabel('E-mail', { exact: true }).first().fill(email);
-  await page.getByLabel('Password').fill(password);
+  const form = page.getByRole('form', { name: 'Sign in with password' });
+  await form.getByRole('textbox', { name: /E-mail/ }).fill(email);
+  await form.locator('input[type="password"]').fill(password);
   await page.getByRole('button', { name: 'Sign in', exact: true }).click();
   await page.waitForURL((url) => !url.pathname.startsWith('/signin'));
 }

@@ -20,6 +20,12 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
       <h1 className="text-2xl font-semibold">Sign in</h1>
       {error ? <p role="alert" className="rounded-card border border-bad p-3 text-bad">{error}</p> : null}
       <SignInForms callbackUrl={sp.callbackUrl ?? '/'} />
+      {process.env.BANDCONE_ENV !== 'production' ? (
+        <p className="rounded-card border border-rule p-3 text-sm text-muted">
+          Demo site: sign in as contributor@bandcone.test, moderator@bandcone.test or admin@bandcone.test with the password
+          from the README (default <code className="figures">bandcone-demo</code>).
+        </p>
+      ) : null}
     </div>
   );
 }

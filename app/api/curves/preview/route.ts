@@ -5,7 +5,7 @@ import { cleanPoints } from '@/lib/engine/curve';
 import { computeMetrics } from '@/lib/engine/metrics';
 import { runChecks } from '@/lib/engine/checks';
 import { pointsSchema, readerOptionsSchema } from '@/lib/schemas/model';
-import { submissionMetadataSchema } from '@/lib/schemas/submission';
+import { previewMetadataSchema } from '@/lib/schemas/submission';
 import { clientAddress, overLimit } from '@/lib/rate-limit';
 
 const PER_MINUTE = Number(process.env.PREVIEW_RATE_PER_MINUTE ?? 120);
@@ -48,7 +48,8 @@ export const POST = withErrors(async (req: Request) => {
     read = { points: cleaned.points, warnings: cleaned.warnings };
   }
   const metrics = computeMetrics(read.points);
-  const meta = metadata === undefined ? undefined : submissionMetadataSchema.partial().safeParse(metadata);
+  // Lenient: a half-filled form still gets the checks its filled fields allow.
+  const meta = metadata === undefined ? undefined : previewMetadataSchema.safeParse(metadata);
   const checks = runChecks({ metrics, metadata: meta?.success ? meta.data : undefined });
   const { warnings: metricWarnings, sampleCount, medianStepNm, rangeNm, ...rest } = metrics;
   return NextResponse.json({

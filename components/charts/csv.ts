@@ -1,0 +1,131 @@
+/**
+ * CSV built in the browser from what a chart shows. Kept free of React and of the
+ * DOM (except `downloadText`) so it can be tested and reused by tables.
+ */
+
+export type CsvCell = string | number | null | undefined;
+
+export interface CsvColumn {
+  header: string;
+  values: readonly CsvCell[];
+}
+
+export interface CsvSeries {
+  name: string;
+  x: readonly number[];
+  y: readonly number[];
+}
+
+/** RFC 4180 line ends, which every spreadsheet accepts. */
+const EOL = '\r\n';
+
+/**
+ * Spreadsheets run a text cell that starts with one of these as a formula (or, for
+ * tab and CR, after the whitespace is trimmed). Labels are typed by contributors, so
+ * a leading apostrophe keeps a "=HYPERLINK(…)" label inert while staying visible.
+ */
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+export function neutraliseText(text: string): string {
+  return FORMULA_START.test(text) ? `'${text}` : text;
+}
+
+/**
+ * Numbers print at 12 significant digits so float noise (87.40000000000001) does not
+ * reach the file, while every digit an instrument can resolve survives.
+ */
+export function formatCsvNumber(value: number): string {
+  if (!Number.isFinite(value)) return '';
+  const n = Number(value.toPrecision(12));
+  return Object.is(n, -0) ? '0' : String(n);
+}
+
+export function escapeCell(cell: CsvCell): string {
+  if (cell == null) return '';
+  // Numbers are data, not text: a negative value must stay a number, so only text is neutralised.
+  const text = typeof cell === 'number' ? formatCsvNumber(cell) : neutraliseText(cell);
+  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+}
+
+export function rowsToCsv(rows: readonly (readonly CsvCell[])[]): string {
+  return rows.map((row) => row.map(escapeCell).join(',')).join(EOL) + EOL;
+}
+
+/** Columns may differ in length (curves sampled differently); short ones end in blanks. */
+export function columnsToCsv(columns: readonly CsvColumn[]): string {
+  const length = columns.reduce((m, c) => Math.max(m, c.values.length), 0);
+  const rows: CsvCell[][] = [columns.map((c) => c.header)];
+  for (let i = 0; i < length; i++) rows.push(columns.map((c) => c.values[i]));
+  return rowsToCsv(rows);
+}
+
+function sameGrid(a: readonly number[], b: readonly number[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
+/**
+ * Series as columns. When every series shares one x grid the file has a single x
+ * column (the usual case for a cone study, which resamples onto the curve's grid);
+ * otherwise each series keeps its own x column so no value is interpolated.
+ */
+export function seriesToColumns(
+  series: readonly CsvSeries[],
+  xHeader: string,
+  yHeader: (name: string) => string,
+): CsvColumn[] {
+  if (series.length === 0) return [{ header: xHeader, values: [] }];
+  const shared = series.every((s) => sameGrid(s.x, series[0].x));
+  if (shared) {
+    return [{ header: xHeader, values: series[0].x }, ...series.map((s) => ({ header: yHeader(s.name), values: s.y }))];
+  }
+  return series.flatMap((s) => [
+    { header: `${s.name} ${xHeader}`, values: s.x },
+    { header: yHeader(s.name), values: s.y },
+  ]);
+}
+
+export function seriesToCsv(series: readonly CsvSeries[], xHeader: string, yHeader: (name: string) => string): string {
+  return columnsToCsv(seriesToColumns(series, xHeader, yHeader));
+}
+
+/** A file name from a chart title: lower case, ASCII, no path characters. */
+export function fileNameFor(title: string, extension: string): string {
+  const base = title
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .replace(/α/gi, 'a')
+    .replace(/β/gi, 'b')
+    .replace(/γ/gi, 'g')
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 80);
+  return `${base || 'bandcone-chart'}.${extension}`;
+}
+
+/** Triggers a download of text built in the page; nothing goes to the server. */
+export function downloadText(fileName: string, text: string, mime = 'text/csv;charset=utf-8'): void {
+  // The byte-order mark makes spreadsheets read line names such as "Hα" as UTF-8.
+  const bom = mime.startsWith('text/csv') ? '\uFEFF' : '';
+  const blob = new Blob([bom + text], { type: mime });
+  const url = URL.createObjectURL(blob);
+  try {
+    downloadUrl(fileName, url);
+  } finally {
+    // Revoke after the click has been handled, or some browsers cancel the download.
+    setTimeout(() => URL.revokeObjectURL(url), 0);
+  }
+}
+
+export function downloadUrl(fileName: string, url: string): void {
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = fileName;
+  a.rel = 'noopener';
+  a.style.display = 'none';
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+}

@@ -1,0 +1,69 @@
+'use client';
+
+import type { Assumed, ReaderOptions } from './preview-api';
+
+const WL: Record<string, string> = { nm: 'nm', angstrom: 'Å (ångström)', um: 'µm' };
+const TR: Record<string, string> = { fraction: 'fraction 0–1', percent: 'percent 0–100', od: 'optical density' };
+const SEP: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', whitespace: 'spaces' };
+const DEC: Record<string, string> = { '.': 'point (656.3)', ',': 'comma (656,3)' };
+
+const selectClass = 'w-full rounded-card border border-rule bg-panel px-2 py-1 text-sm';
+
+function Choice(props: { id: string; label: string; value: string | undefined; guess: string | undefined; words: Record<string, string>; onChange: (v: string | undefined) => void }) {
+  const overridden = props.value !== undefined;
+  return (
+    <div className="min-w-0">
+      <label htmlFor={props.id} className="block text-xs text-muted">
+        {props.label}
+        {overridden ? <span className="ml-1 text-accent">(your choice)</span> : null}
+      </label>
+      <select id={props.id} value={props.value ?? ''} onChange={(e) => props.onChange(e.target.value === '' ? undefined : e.target.value)} className={selectClass}>
+        <option value="">{props.guess !== undefined ? `${props.words[props.guess] ?? props.guess} (read from file)` : 'guess from the file'}</option>
+        {Object.entries(props.words).map(([k, w]) => <option key={k} value={k}>{w}</option>)}
+      </select>
+    </div>
+  );
+}
+
+/** What the reader assumed about a file, each guess overridable; changing one re-reads the file. */
+export function ReaderControls(props: { idPrefix: string; assumed: Assumed | null; options: ReaderOptions; onChange: (next: ReaderOptions) => void }) {
+  const { assumed, options } = props;
+  const set = <K extends keyof ReaderOptions>(key: K, value: ReaderOptions[K] | undefined) => {
+    const next = { ...options };
+    if (value === undefined) delete next[key];
+    else next[key] = value;
+    props.onChange(next);
+  };
+  const columns = assumed?.columns ?? [];
+  const columnWords = Object.fromEntries(columns.map((c, i) => [String(i), `${i + 1}: ${c}`]));
+  const id = (k: string) => `${props.idPrefix}-${k}`;
+  return (
+    <fieldset className="space-y-2">
+      <legend className="text-sm font-medium">How the file was read</legend>
+      <div className="grid grid-cols-2 gap-2 sm:grid-cols-4">
+        <Choice id={id('wl')} label="Wavelength unit" value={options.wavelengthUnit} guess={assumed?.wavelengthUnit} words={WL} onChange={(v) => set('wavelengthUnit', v as ReaderOptions['wavelengthUnit'])} />
+        <Choice id={id('tr')} label="Transmission unit" value={options.transmissionUnit} guess={assumed?.transmissionUnit} words={TR} onChange={(v) => set('transmissionUnit', v as ReaderOptions['transmissionUnit'])} />
+        <Choice id={id('sep')} label="Separator" value={options.delimiter} guess={assumed?.delimiter} words={SEP} onChange={(v) => set('delimiter', v as ReaderOptions['delimiter'])} />
+        <Choice id={id('dec')} label="Decimal mark" value={options.decimalSeparator} guess={assumed?.decimalSeparator} words={DEC} onChange={(v) => set('decimalSeparator', v as ReaderOptions['decimalSeparator'])} />
+        <div className="min-w-0">
+          <label htmlFor={id('hdr')} className="block text-xs text-muted">
+            Header lines{options.headerLines !== undefined ? <span className="ml-1 text-accent">(your choice)</span> : null}
+          </label>
+          <input id={id('hdr')} type="number" min={0} max={1000} step={1} value={options.headerLines ?? assumed?.headerLines ?? ''}
+            onChange={(e) => set('headerLines', e.target.value === '' ? undefined : Math.max(0, Math.floor(Number(e.target.value))))} className={`${selectClass} figures`} />
+        </div>
+        {columns.length >= 2 || options.wavelengthColumn !== undefined || options.transmissionColumn !== undefined ? (
+          <>
+            <Choice id={id('wc')} label="Wavelength column" value={options.wavelengthColumn?.toString()} guess={assumed ? String(assumed.wavelengthColumn) : undefined} words={columnWords}
+              onChange={(v) => set('wavelengthColumn', v === undefined ? undefined : Number(v))} />
+            <Choice id={id('tc')} label="Transmission column" value={options.transmissionColumn?.toString()} guess={assumed ? String(assumed.transmissionColumn) : undefined} words={columnWords}
+              onChange={(v) => set('transmissionColumn', v === undefined ? undefined : Number(v))} />
+          </>
+        ) : null}
+      </div>
+      {Object.keys(options).length > 0 ? (
+        <button type="button" onClick={() => props.onChange({})} className="text-xs text-accent underline underline-offset-2">Go back to what the reader guessed</button>
+      ) : null}
+    </fieldset>
+  );
+}
