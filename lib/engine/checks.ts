@@ -1,0 +1,184 @@
+/**
+ * Automatic checks run on every submission before a moderator sees it. They
+ * compare the derived numbers with what the contributor declared and flag data
+ * that the cone model cannot be trusted on. Pure: the server adds the checks
+ * that need the library (such as duplicates).
+ */
+
+import { cleanPoints } from './curve';
+import { EngineInputError } from './errors';
+import { findLine } from './lines';
+import { fitEffectiveIndex } from './neff';
+import type { Check, CurvePoints, Metrics } from './types';
+
+export interface CheckMethod {
+  instrument?: string;
+  resolutionNm?: number;
+  beam?: 'collimated' | 'converging';
+  beamFNumber?: number;
+  aoiDeg?: number;
+  temperatureC?: number;
+}
+
+export interface CheckMetadata {
+  lines?: string[];
+  nominalCwlNm?: number;
+  nominalFwhmNm?: number;
+  declaredPreShiftNm?: number;
+  method?: CheckMethod;
+}
+
+export interface CheckInput {
+  metrics: Metrics;
+  metadata?: CheckMetadata;
+  /** AOI of this file when it belongs to a set (else metadata.method.aoiDeg). */
+  aoiDeg?: number;
+  /** Every curve of a multi-angle set, for the set checks (codes starting with "set"). */
+  set?: { aoiDeg: number; metrics: Metrics }[];
+}
+
+/** Tolerances. The CWL and FWHM ones are the brief's; the others are common practice. */
+export const CWL_TOLERANCE_NM = 0.5;
+export const FWHM_TOLERANCE = 0.15;
+export const COVERAGE_FWHMS = 3;
+export const PEAK_ERROR_ABOVE = 1.02;
+export const PEAK_LOW_BELOW = 0.2;
+/** Effective indices of common coatings span roughly this range (common practice). */
+const NEFF_PLAUSIBLE: [number, number] = [1.4, 2.4];
+
+const DEG = Math.PI / 180;
+const nm = (v: number, d = 2) => `${v.toFixed(d)} nm`;
+
+function scale(aoiDeg: number, n: number): number {
+  const s = Math.sin(aoiDeg * DEG);
+  return Math.sqrt(1 - (s * s) / (n * n));
+}
+
+export function runChecks(input: CheckInput): Check[] {
+  const { metrics: m, metadata } = input;
+  const method = metadata?.method;
+  const aoi = input.aoiDeg ?? method?.aoiDeg ?? 0;
+  const checks: Check[] = [];
+  const add = (code: string, level: Check['level'], message: string) => checks.push({ code, level, message });
+
+  if (m.cwlNm === null || m.fwhmNm === null) {
+    add('passband-undefined', 'error', 'The curve has no half-maximum crossing on at least one side, so CWL and FWHM are undefined; measure a wider range around the passband.');
+  } else {
+    add('passband', 'info', `Peak ${(m.peakT * 100).toFixed(1)} % at ${nm(m.peakNm)}, CWL ${nm(m.cwlNm)}, FWHM ${nm(m.fwhmNm)}.`);
+  }
+
+  if (m.peakT > PEAK_ERROR_ABOVE) {
+    add('peak-high', 'error', `Peak transmission ${(m.peakT * 100).toFixed(1)} % is above 102 %; check the baseline or the transmission unit.`);
+  } else if (m.peakT > 1) {
+    add('peak-high', 'warn', `Peak transmission ${(m.peakT * 100).toFixed(1)} % is slightly above 100 %, which suggests a baseline or noise error.`);
+  } else if (m.peakT < PEAK_LOW_BELOW) {
+    add('peak-low', 'warn', `Peak transmission ${(m.peakT * 100).toFixed(1)} % is below 20 %; check the unit (percent versus fraction) and the reference beam.`);
+  }
+
+  if (m.cwlNm !== null && m.fwhmNm !== null) {
+    const nominal = metadata?.nominalCwlNm;
+    if (nominal !== undefined && nominal > 0) {
+      // at non-normal incidence the passband is expected blueward of nominal
+      const lo = nominal * scale(aoi, NEFF_PLAUSIBLE[0]) - CWL_TOLERANCE_NM;
+      const hi = nominal * scale(aoi, NEFF_PLAUSIBLE[1]) + CWL_TOLERANCE_NM;
+      const where = aoi > 0 ? ` for a measurement at ${aoi}° AOI (allowing the angle shift)` : '';
+      if (m.cwlNm < lo || m.cwlNm > hi) {
+        add('cwl-nominal', 'warn', `Measured CWL ${nm(m.cwlNm)} is ${nm(m.cwlNm - nominal)} from the nominal ${nm(nominal)}, more than ${CWL_TOLERANCE_NM} nm${where}.`);
+      } else {
+        add('cwl-nominal', 'info', `Measured CWL ${nm(m.cwlNm)} agrees with the nominal ${nm(nominal)} within ${CWL_TOLERANCE_NM} nm${where}.`);
+      }
+    }
+    const nominalFwhm = metadata?.nominalFwhmNm;
+    if (nominalFwhm !== undefined && nominalFwhm > 0) {
+      const rel = (m.fwhmNm - nominalFwhm) / nominalFwhm;
+      const text = `Measured FWHM ${nm(m.fwhmNm)} is ${(rel * 100).toFixed(0)} % from the nominal ${nm(nominalFwhm)}`;
+      if (Math.abs(rel) > FWHM_TOLERANCE) add('fwhm-nominal', 'warn', `${text}, beyond ±15 %.`);
+      else add('fwhm-nominal', 'info', `${text}, within ±15 %.`);
+    }
+
+    const need: [number, number] = [m.cwlNm - COVERAGE_FWHMS * m.fwhmNm, m.cwlNm + COVERAGE_FWHMS * m.fwhmNm];
+    if (m.rangeNm[0] > need[0] || m.rangeNm[1] < need[1]) {
+      add('coverage', 'warn', `The measured range ${nm(m.rangeNm[0], 1)}–${nm(m.rangeNm[1], 1)} does not cover CWL ± 3·FWHM (${nm(need[0], 1)}–${nm(need[1], 1)}); the cone model treats the missing part as zero transmission.`);
+    } else {
+      add('coverage', 'info', 'The measured range covers the passband and CWL ± 3·FWHM.');
+    }
+
+    const step = m.medianStepNm;
+    if (step > m.fwhmNm / 5) {
+      add('sampling-fwhm', 'warn', `The median sample step ${nm(step, 3)} is more than a fifth of the FWHM; the passband shape is coarsely sampled.`);
+    }
+    const res = method?.resolutionNm;
+    if (res !== undefined && res > m.fwhmNm / 5) {
+      add('resolution', 'warn', `The declared resolution ${nm(res, 3)} is more than a fifth of the FWHM, so the measured passband is broadened by the instrument.`);
+    }
+  }
+
+  const res = method?.resolutionNm;
+  if (res !== undefined && res > 0) {
+    if (m.medianStepNm > res * 1.0001) {
+      add('sampling', 'warn', `The median sample step ${nm(m.medianStepNm, 3)} is coarser than the declared resolution ${nm(res, 3)}: the curve is undersampled.`);
+    } else {
+      add('sampling', 'info', `The median sample step ${nm(m.medianStepNm, 3)} is within the declared resolution ${nm(res, 3)}.`);
+    }
+  }
+
+  for (const id of metadata?.lines ?? []) {
+    const line = findLine(id);
+    if (!line) continue;
+    if (line.airNm < m.rangeNm[0] || line.airNm > m.rangeNm[1]) {
+      add('line-coverage', 'warn', `The target line ${line.name} (${line.airNm} nm) lies outside the measured range.`);
+    }
+  }
+
+  if (method?.beam === 'converging') {
+    if (method.beamFNumber === undefined) {
+      add('beam-fnumber', 'error', 'The beam was converging but its f-number is missing; the cone itself shifts and widens a measured passband.');
+    } else {
+      add('beam-fnumber', 'info', `Measured in a converging f/${method.beamFNumber} beam: the curve already includes that cone's broadening.`);
+    }
+  }
+
+  if (input.set) checks.push(...setChecks(input.set));
+  return checks;
+}
+
+function setChecks(set: { aoiDeg: number; metrics: Metrics }[]): Check[] {
+  const out: Check[] = [];
+  const usable = set.filter((s) => s.metrics.cwlNm !== null);
+  if (usable.length < set.length) {
+    out.push({ code: 'set-cwl', level: 'warn', message: `${set.length - usable.length} curve(s) of the set have no CWL and are left out of the effective-index fit.` });
+  }
+  const angles = new Set(usable.map((s) => s.aoiDeg));
+  if (angles.size < 2) {
+    out.push({ code: 'set-angles', level: 'warn', message: 'The set needs CWLs at two or more different AOIs to fit an effective index.' });
+    return out;
+  }
+  try {
+    const fit = fitEffectiveIndex(usable.map((s) => ({ aoiDeg: s.aoiDeg, cwlNm: s.metrics.cwlNm as number })));
+    const text = `Effective index ${fit.nEff.toFixed(3)} fitted from ${usable.length} angles (normal-incidence CWL ${nm(fit.cwl0Nm)}, RMS residual ${nm(fit.rmsResidualNm, 3)}).`;
+    if (fit.nEff < 1 || fit.nEff > 4) {
+      out.push({ code: 'set-neff', level: 'warn', message: `${text} That is outside 1.0–4.0, the range the model accepts.` });
+    } else {
+      out.push({ code: 'set-neff', level: 'info', message: text });
+    }
+  } catch (e) {
+    if (!(e instanceof EngineInputError)) throw e;
+    out.push({ code: 'set-direction', level: 'error', message: e.message });
+  }
+  return out;
+}
+
+/** Significant digits kept in the canonical text, so unit conversions hash alike. */
+const CANONICAL_DIGITS = 10;
+
+/**
+ * Canonical text of a curve's points (cleaned, ascending, fixed precision) for
+ * duplicate detection; the server hashes it with SHA-256.
+ */
+export function normalisedPointsHash(points: CurvePoints): string {
+  const { points: p } = cleanPoints(points);
+  const fmt = (v: number) => String(Number(v.toPrecision(CANONICAL_DIGITS)));
+  const rows = new Array<string>(p.wavelengthNm.length);
+  for (let i = 0; i < rows.length; i++) rows[i] = `${fmt(p.wavelengthNm[i])},${fmt(p.transmission[i])}`;
+  return `bandcone-points-v1\n${rows.join('\n')}\n`;
+}

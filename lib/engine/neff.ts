@@ -1,0 +1,82 @@
+/**
+ * Effective index from one filter measured at several AOIs (MODEL.md §7):
+ * with λ(θ) = λ0·sqrt(1 − sin²θ/n²), λ² is linear in sin²θ,
+ *   λ² = a + b·sin²θ,  λ0 = sqrt(a),  n_eff = sqrt(−a/b).
+ */
+
+import { EngineInputError, type InputDetail } from './errors';
+
+export interface AngleCwl {
+  aoiDeg: number;
+  cwlNm: number;
+}
+
+export interface NeffFit {
+  nEff: number;
+  cwl0Nm: number;
+  rmsResidualNm: number;
+  points: { aoiDeg: number; cwlNm: number; fittedNm: number; residualNm: number }[];
+}
+
+const DEG = Math.PI / 180;
+
+export function predictCwl(cwl0Nm: number, nEff: number, aoiDeg: number): number {
+  const s = Math.sin(aoiDeg * DEG);
+  return cwl0Nm * Math.sqrt(1 - (s * s) / (nEff * nEff));
+}
+
+export function fitEffectiveIndex(measurements: AngleCwl[]): NeffFit {
+  if (!Array.isArray(measurements) || measurements.length === 0) {
+    throw new EngineInputError('Give CWLs measured at two or more angles.', [{ field: 'measurements', message: 'no measurements' }]);
+  }
+  const details: InputDetail[] = [];
+  measurements.forEach((m, i) => {
+    if (typeof m?.aoiDeg !== 'number' || !Number.isFinite(m.aoiDeg) || m.aoiDeg < 0 || m.aoiDeg >= 90) {
+      details.push({ field: 'aoiDeg', index: i, message: 'AOI must be between 0 and 90 degrees' });
+    }
+    if (typeof m?.cwlNm !== 'number' || !Number.isFinite(m.cwlNm) || m.cwlNm <= 0) {
+      details.push({ field: 'cwlNm', index: i, message: 'CWL must be a positive number of nm' });
+    }
+  });
+  if (details.length > 0) throw new EngineInputError(`Measurement ${details[0].index}: ${details[0].message}.`, details);
+
+  const xs = measurements.map((m) => Math.sin(m.aoiDeg * DEG) ** 2);
+  const ys = measurements.map((m) => m.cwlNm * m.cwlNm);
+  const distinct = new Set(measurements.map((m) => m.aoiDeg)).size;
+  if (distinct < 2) {
+    throw new EngineInputError('The effective index needs curves measured at two or more different angles.', [
+      { field: 'measurements', message: `only ${distinct} distinct AOI` },
+    ]);
+  }
+  const n = xs.length;
+  const mx = xs.reduce((s, v) => s + v, 0) / n;
+  const my = ys.reduce((s, v) => s + v, 0) / n;
+  let sxx = 0;
+  let sxy = 0;
+  for (let i = 0; i < n; i++) {
+    sxx += (xs[i] - mx) ** 2;
+    sxy += (xs[i] - mx) * (ys[i] - my);
+  }
+  const b = sxy / sxx;
+  const a = my - b * mx;
+  if (!(b < 0)) {
+    throw new EngineInputError('These curves do not move blueward with angle, so no effective index can be fitted.', [
+      { field: 'measurements', message: 'CWL does not fall as the AOI grows (fitted slope b ≥ 0)' },
+    ]);
+  }
+  if (!(a > 0)) {
+    throw new EngineInputError('The fitted normal-incidence CWL is not real; check the angles and CWLs.', [
+      { field: 'measurements', message: 'fitted intercept a ≤ 0' },
+    ]);
+  }
+  const cwl0Nm = Math.sqrt(a);
+  const nEff = Math.sqrt(-a / b);
+  let ss = 0;
+  const points = measurements.map((m, i) => {
+    const fittedNm = Math.sqrt(Math.max(0, a + b * xs[i]));
+    const residualNm = m.cwlNm - fittedNm;
+    ss += residualNm * residualNm;
+    return { aoiDeg: m.aoiDeg, cwlNm: m.cwlNm, fittedNm, residualNm };
+  });
+  return { nEff, cwl0Nm, rmsResidualNm: Math.sqrt(ss / n), points };
+}
