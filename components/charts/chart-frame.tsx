@@ -58,7 +58,7 @@ export function ChartFrame({
         {summary != null && summary !== '' ? (
           <figcaption
             id={captionId}
-            className={`figures text-xs leading-relaxed text-muted ${side ? 'mt-3 border-t border-rule pt-3 lg:mt-0 lg:border-t-0 lg:border-l lg:pl-4 lg:pt-0' : 'mt-3 border-t border-rule pt-3'}`}
+            className={`text-sm leading-relaxed text-muted [font-variant-numeric:tabular-nums] ${side ? 'mt-3 border-t border-rule pt-3 lg:mt-0 lg:border-t-0 lg:border-l lg:pl-4 lg:pt-0' : 'mt-3 border-t border-rule pt-3'}`}
           >
             {summary}
           </figcaption>

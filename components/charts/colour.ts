@@ -152,5 +152,6 @@ export function dayHeatRamp(paper: Rgb, accent: Rgb, ink: Rgb): string[] {
 }
 
 export function nightHeatRamp(accent: Rgb): string[] {
-  return [toHex([0, 0, 0]), toHex(scale(accent, 0.22)), toHex(scale(accent, 0.45)), toHex(scale(accent, 0.72)), toHex(accent)];
+  // Tops out below full accent: a heat map can fill half a screen, and the night view is meant to be dim.
+  return [toHex([0, 0, 0]), toHex(scale(accent, 0.2)), toHex(scale(accent, 0.4)), toHex(scale(accent, 0.62)), toHex(scale(accent, 0.85))];
 }

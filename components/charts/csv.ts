@@ -66,9 +66,10 @@ function sameGrid(a: readonly number[], b: readonly number[]): boolean {
 }
 
 /**
- * Series as columns. When every series shares one x grid the file has a single x
- * column (the usual case for a cone study, which resamples onto the curve's grid);
- * otherwise each series keeps its own x column so no value is interpolated.
+ * Series as columns. Series sampled on the same x grid share one x column (a curve and
+ * its cone-averaged twin usually do); series on different grids each keep their own, so
+ * no value is ever interpolated. With one grid the x column is simply `xHeader`;
+ * otherwise it is named after the first series on it.
  */
 export function seriesToColumns(
   series: readonly CsvSeries[],
@@ -76,13 +77,15 @@ export function seriesToColumns(
   yHeader: (name: string) => string,
 ): CsvColumn[] {
   if (series.length === 0) return [{ header: xHeader, values: [] }];
-  const shared = series.every((s) => sameGrid(s.x, series[0].x));
-  if (shared) {
-    return [{ header: xHeader, values: series[0].x }, ...series.map((s) => ({ header: yHeader(s.name), values: s.y }))];
+  const groups: CsvSeries[][] = [];
+  for (const s of series) {
+    const group = groups.find((g) => sameGrid(g[0].x, s.x));
+    if (group) group.push(s);
+    else groups.push([s]);
   }
-  return series.flatMap((s) => [
-    { header: `${s.name} ${xHeader}`, values: s.x },
-    { header: yHeader(s.name), values: s.y },
+  return groups.flatMap((g) => [
+    { header: groups.length === 1 ? xHeader : `${g[0].name} ${xHeader}`, values: g[0].x },
+    ...g.map((s) => ({ header: yHeader(s.name), values: s.y })),
   ]);
 }
 

@@ -1,5 +1,3 @@
-'use client';
-
 // Only what the chart kit draws is registered, which keeps the chart bundle a
 // fraction of the full library.
 import * as echarts from 'echarts/core';

@@ -46,7 +46,7 @@ export interface HeatmapChartProps {
 }
 
 // Both grids must sit on exactly the same rectangle, so margins are fixed rather than fitted to labels.
-const GRID = { left: 54, right: 14, top: 12, bottom: 78 };
+const GRID = { left: 64, right: 16, top: 12, bottom: 78 };
 
 function step(v: readonly number[]): number {
   return v.length > 1 ? (v[v.length - 1] - v[0]) / (v.length - 1) : 1;
@@ -145,14 +145,14 @@ export function HeatmapChart({
       xAxis: [
         hiddenAxis(x.length),
         {
-          ...axisOption(theme, { name: xName, format: xFormat, min: x[0] - dx / 2, max: x[x.length - 1] + dx / 2, gridIndex: 1, splitLine: false, nameGap: 24 }),
+          ...axisOption(theme, { name: xName, format: xFormat, min: x[0] - dx / 2, max: x[x.length - 1] + dx / 2, gridIndex: 1, splitLine: false, nameGap: 24, endLabels: false }),
           z: 10,
         },
       ],
       yAxis: [
         { ...hiddenAxis(y.length), gridIndex: 0 },
         {
-          ...axisOption(theme, { name: yName, format: yFormat, min: y[0] - dy / 2, max: y[y.length - 1] + dy / 2, gridIndex: 1, splitLine: false, vertical: true, nameGap: 40 }),
+          ...axisOption(theme, { name: yName, format: yFormat, min: y[0] - dy / 2, max: y[y.length - 1] + dy / 2, gridIndex: 1, splitLine: false, vertical: true, nameGap: 44, endLabels: false }),
           z: 10,
         },
       ],
@@ -164,12 +164,13 @@ export function HeatmapChart({
         max: hi,
         calculable: false,
         orient: 'horizontal',
-        left: GRID.left,
+        left: 'center',
         bottom: 4,
         itemWidth: 10,
-        itemHeight: 150,
+        itemHeight: 120,
         text: [`${hi} %`, `${valueName}  ${lo} %`],
         textGap: 6,
+        formatter: (v: number) => formatPercent(v, 0),
         textStyle: { color: theme.muted, fontFamily: theme.fontFigures, fontSize: 10 },
         inRange: { color: [...theme.heatRamp] },
         // The ramp ends at the night accent, never at white.

@@ -150,7 +150,17 @@ export function HistogramChart({
               name: m.label,
               xAxis: m.deg,
               lineStyle: { color: theme.accent, width: 1.25, type: [4, 3] },
-              label: { show: true, formatter: m.label, position: 'insideEndTop', color: theme.accent, fontSize: 10, fontFamily: theme.fontText },
+              label: {
+                show: true,
+                formatter: m.label,
+                position: 'insideEndTop',
+                color: theme.accent,
+                fontSize: 10,
+                fontFamily: theme.fontText,
+                backgroundColor: theme.panel,
+                padding: [2, 1],
+                borderRadius: 2,
+              },
             })),
           }
         : undefined,

@@ -26,8 +26,6 @@ export function baseOption(theme: ChartTheme) {
     animation: true,
     animationDuration: 300,
     textStyle: { fontFamily: theme.fontText, color: theme.text },
-    // The series key is HTML (ChartLegend), so the canvas never draws one.
-    legend: { show: false },
   };
 }
 
@@ -56,6 +54,8 @@ interface AxisArgs {
   /** Vertical axis names are rotated along the axis. */
   vertical?: boolean;
   nameGap?: number;
+  /** Print the labels at the axis ends (off where the ends are half-cell edges, not data). */
+  endLabels?: boolean;
 }
 
 export function axisOption(theme: ChartTheme, a: AxisArgs) {
@@ -71,6 +71,8 @@ export function axisOption(theme: ChartTheme, a: AxisArgs) {
     nameTextStyle: { color: theme.muted, fontFamily: theme.fontText, fontSize: 11 },
     min: a.min,
     max: a.max,
+    // Without explicit limits, fit the data rather than always reaching zero (a CWL axis at 0 nm hides everything).
+    scale: a.min == null && a.max == null,
     axisLine: { show: true, onZero: false, lineStyle: { color: theme.axis, width: 1 } },
     axisTick: { show: true, lineStyle: { color: theme.axis } },
     axisLabel: {
@@ -78,6 +80,8 @@ export function axisOption(theme: ChartTheme, a: AxisArgs) {
       fontFamily: theme.fontFigures,
       fontSize: 10,
       hideOverlap: true,
+      showMinLabel: a.endLabels,
+      showMaxLabel: a.endLabels,
       formatter: a.type === 'category' ? undefined : (v: number) => formatTick(v, fmt),
     },
     splitLine: { show: a.splitLine ?? true, lineStyle: { color: theme.grid, width: 1 } },
@@ -181,10 +185,21 @@ export function xZoomOption(
   ];
 }
 
-/** Hidden toolbox: it only supplies the drag-a-box zoom that the "Zoom by box" button switches on. */
+/**
+ * Invisible toolbox: it only supplies the drag-a-box zoom that the "Zoom by box" button
+ * switches on. It must be "shown" (ECharts wires the box only for a rendered toolbox),
+ * so its icon is drawn at zero size instead.
+ */
 export function boxZoomToolbox(theme: ChartTheme) {
   return {
-    show: false,
+    show: true,
+    left: 0,
+    top: 0,
+    itemSize: 0,
+    itemGap: 0,
+    showTitle: false,
+    iconStyle: { opacity: 0, borderWidth: 0 },
+    emphasis: { iconStyle: { opacity: 0, borderWidth: 0 } },
     feature: {
       dataZoom: {
         yAxisIndex: 'none' as const,

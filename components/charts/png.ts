@@ -1,5 +1,3 @@
-'use client';
-
 import type { LegendItem } from './chart-frame';
 import type { EChartsType } from './echarts-core';
 import type { ChartTheme } from './use-chart-theme';

@@ -1,6 +1,6 @@
 'use client';
 
-import { useCallback, useEffect, useId, useMemo, type ReactNode } from 'react';
+import { useCallback, useId, useMemo, type ReactNode } from 'react';
 import { ChartCanvas } from './chart-canvas';
 import { ChartActions, ChartFrame, ChartLegend, type LegendItem } from './chart-frame';
 import { seriesToCsv } from './csv';
@@ -10,6 +10,7 @@ import {
   axisOption,
   baseOption,
   boxZoomToolbox,
+  dashType,
   gridOption,
   symbolStyle,
   tooltipHeader,
@@ -18,7 +19,7 @@ import {
   xZoomOption,
 } from './options';
 import { ascending, passbandStats, passbandWindow, valueAt } from './passband';
-import { useChartControls } from './use-chart-controls';
+import { useAfterOption, useChartControls } from './use-chart-controls';
 import { useChartTheme, type ChartTheme } from './use-chart-theme';
 
 export interface SpectrumSeries {
@@ -111,6 +112,24 @@ function styleOf(theme: ChartTheme, p: Prepared) {
   return { color: s.color, width: s.width, symbol: s.symbol };
 }
 
+/** Index of the sample nearest `at` in an ascending array, or -1 when empty. */
+function nearestIndex(x: readonly number[], at: number): number {
+  if (x.length === 0) return -1;
+  let lo = 0;
+  let hi = x.length - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (x[mid] <= at) lo = mid;
+    else hi = mid;
+  }
+  return Math.abs(x[lo] - at) <= Math.abs(x[hi] - at) ? lo : hi;
+}
+
+/** A number and its unit never break across lines. */
+function Num({ children }: { children: ReactNode }) {
+  return <span className="whitespace-nowrap">{children}</span>;
+}
+
 function describe(prepared: Prepared[], lines: readonly SpectrumLine[]): ReactNode {
   const measured = prepared.filter((p) => p.kind === 'measured');
   if (measured.length === 0) return null;
@@ -119,15 +138,26 @@ function describe(prepared: Prepared[], lines: readonly SpectrumLine[]): ReactNo
       {measured.map((p) => {
         const s = passbandStats(p.x, p.y);
         if (!s) return null;
+        // Lines near the passband (those it passes or must block); far ones would only list zeros.
+        const reach = s.width != null && s.centre != null ? 2 * s.width + 2 : Infinity;
         const atLines = lines
           .map((l) => ({ l, v: valueAt(p.x, p.y, l.nm) }))
-          .filter((e) => e.v != null)
-          .map((e) => `${e.l.name} ${formatPercent(e.v)}`);
+          .filter((e) => e.v != null && (Math.abs(e.l.nm - (s.centre ?? s.peakAt)) <= reach || e.v >= 1));
         return (
           <li key={p.key}>
-            <span className="text-ink">{p.name}</span>: peak {formatPercent(s.peak)} at {formatNm(s.peakAt)}
-            {s.width != null ? `; ${formatFwhm(s.width)} centred on ${formatNm(s.centre)}` : ''}
-            {atLines.length ? `; ${atLines.join(', ')}` : ''}.
+            <span className="text-ink">{p.name}</span>: peak <Num>{formatPercent(s.peak)}</Num> at <Num>{formatNm(s.peakAt)}</Num>
+            {s.width != null ? (
+              <>
+                ; <Num>{formatFwhm(s.width)}</Num> centred on <Num>{formatNm(s.centre)}</Num>
+              </>
+            ) : null}
+            {atLines.map((e, i) => (
+              <span key={e.l.id}>
+                {i === 0 ? '; ' : ', '}
+                <Num>{`${e.l.name} ${formatPercent(e.v)}`}</Num>
+              </span>
+            ))}
+            .
           </li>
         );
       })}
@@ -177,6 +207,9 @@ export function SpectrumChart({
     );
   }, [xRange, extent, prepared]);
 
+  // At night hue cannot separate curves, so when no cone curve claims the dash it tells measured curves apart.
+  const identityDash = theme.view === 'night' && !prepared.some((p) => p.kind === 'cone');
+
   const legend = useMemo<LegendItem[]>(
     () =>
       prepared.map((p) => {
@@ -186,11 +219,11 @@ export function SpectrumChart({
           name: p.name,
           color: s.color,
           width: s.width,
-          symbol: s.symbol,
-          dash: p.kind === 'cone' ? theme.coneDash : 'solid',
+          symbol: new Set(prepared.map((q) => q.slot)).size > 1 ? s.symbol : undefined,
+          dash: p.kind === 'cone' ? theme.coneDash : identityDash ? theme.series(p.slot).dash : 'solid',
         };
       }),
-    [prepared, theme],
+    [prepared, theme, identityDash],
   );
 
   const csv = useCallback(
@@ -204,7 +237,7 @@ export function SpectrumChart({
   );
 
   const controls = useChartControls({ title, fileName, theme, legend, csv, initialZoom: firstWindow });
-  const { hidden, zoomRef, zoomKey } = controls;
+  const { hidden } = controls;
 
   const visibleLines = useMemo(
     () => lines.filter((l) => Number.isFinite(l.nm) && l.nm >= extent[0] && l.nm <= extent[1]),
@@ -215,11 +248,13 @@ export function SpectrumChart({
     const shown = prepared.filter((p) => !hidden.has(p.key));
     const pointCount = shown.reduce((m, p) => Math.max(m, p.x.length), 0);
     const large = pointCount > LARGE;
-    const byId = new Map(shown.map((p) => [p.key, p]));
+    // Markers only matter when hues must be told apart; one curve and its cone differ by dash alone.
+    const slots = new Set(prepared.map((p) => p.slot)).size;
 
     const curves = shown.flatMap((p, order) => {
       const s = styleOf(theme, p);
       const cone = p.kind === 'cone';
+      const dash = cone ? [...theme.coneDash] : identityDash ? dashType(theme.series(p.slot).dash) : 'solid';
       const data = p.x.map((x, i) => [x, p.y[i]]);
       const line = {
         type: 'line',
@@ -231,11 +266,11 @@ export function SpectrumChart({
         ...symbolStyle(s.symbol, s.color, theme),
         sampling: large ? 'lttb' : undefined,
         animation: !large,
-        lineStyle: { color: s.color, width: s.width, type: cone ? [...theme.coneDash] : 'solid' },
+        lineStyle: { color: s.color, width: s.width, type: dash },
         emphasis: { disabled: true },
         z: cone ? 3 : 4,
       };
-      const marks = markerPoints(p, order + (cone ? 0.5 : 0));
+      const marks = slots > 1 ? markerPoints(p, order + (cone ? 0.5 : 0)) : [];
       const markers = {
         type: 'scatter',
         id: `marks-${p.key}`,
@@ -266,15 +301,19 @@ export function SpectrumChart({
             data: visibleLines.map((l) => ({
               name: l.name,
               xAxis: l.nm,
-              lineStyle: { color: theme.lineMarker(l.nm), width: 1.25, type: 'solid' },
+              lineStyle: { color: theme.lineMarker(l.nm), width: 1, type: 'solid' },
+              // Names run up from the foot of the marker: the passband's top, where readers look, stays clear.
               label: {
                 show: true,
                 formatter: l.name,
-                position: 'insideEndTop',
+                position: 'insideStartTop',
                 color: theme.lineLabel(l.nm),
                 fontFamily: theme.fontText,
                 fontSize: 10,
                 distance: [4, 3],
+                backgroundColor: theme.panel,
+                padding: [2, 1],
+                borderRadius: 2,
               },
             })),
           }
@@ -287,7 +326,8 @@ export function SpectrumChart({
               itemStyle: { color: theme.band.fill, borderColor: theme.band.edge, borderWidth: 1, borderType: 'dashed' },
               label: {
                 show: true,
-                position: 'insideBottom',
+                position: 'top',
+                distance: 3,
                 color: theme.muted,
                 fontFamily: theme.fontText,
                 fontSize: 10,
@@ -298,27 +338,24 @@ export function SpectrumChart({
           : undefined,
     };
 
+    // Every shown curve's own sample nearest the cursor. ECharts' axis tooltip lists only the curves
+    // sampled at the snapped wavelength, which would drop curves measured on another grid.
     const formatter = (raw: unknown) => {
-      const params = (Array.isArray(raw) ? raw : [raw]) as {
-        seriesId?: string;
-        axisValue?: number;
-        value?: [number, number];
-      }[];
-      const rows = params.filter((q) => q.seriesId?.startsWith('curve-'));
-      const at = params[0]?.axisValue ?? rows[0]?.value?.[0];
-      let html = typeof at === 'number' ? tooltipHeader(formatNm(at)) : '';
-      for (const r of rows) {
-        const p = byId.get(r.seriesId!.slice(6));
-        if (!p || !r.value) continue;
-        // Each curve's own sample nearest the cursor; interpolation would invent values.
+      const params = (Array.isArray(raw) ? raw : [raw]) as { axisValue?: number; value?: [number, number] }[];
+      const at = params[0]?.axisValue ?? params[0]?.value?.[0];
+      if (typeof at !== 'number') return '';
+      let html = tooltipHeader(formatNm(at));
+      for (const p of shown) {
+        const i = nearestIndex(p.x, at);
+        if (i < 0 || Math.abs(p.x[i] - at) > (extent[1] - extent[0]) / 50) continue;
         const label = p.kind === 'cone' ? `${p.name} (cone)` : p.name;
-        html += tooltipRow(styleOf(theme, p).color, label, `${formatPercent(r.value[1])} at ${formatNm(r.value[0])}`, p.kind === 'cone');
+        const where = Math.abs(p.x[i] - at) >= 0.005 ? ` at ${formatNm(p.x[i])}` : '';
+        html += tooltipRow(styleOf(theme, p).color, label, `${formatPercent(p.y[i])}${where}`, p.kind === 'cone');
       }
-      if (typeof at === 'number') {
-        const span = (zoomRef.current ? zoomRef.current[1] - zoomRef.current[0] : extent[1] - extent[0]) / 60;
-        for (const l of visibleLines) {
-          if (Math.abs(l.nm - at) <= span) html += tooltipRow(theme.lineMarker(l.nm), l.name, formatNm(l.nm));
-        }
+      // Lines within a few pixels' worth of the cursor at the whole scan's scale.
+      const span = Math.min(1, Math.max(0.15, (extent[1] - extent[0]) / 150));
+      for (const l of visibleLines) {
+        if (Math.abs(l.nm - at) <= span) html += tooltipRow(theme.lineMarker(l.nm), l.name, formatNm(l.nm));
       }
       return html;
     };
@@ -326,20 +363,17 @@ export function SpectrumChart({
     return {
       ...baseOption(theme),
       animation: !large,
-      grid: gridOption({ top: 14, bottom: 34, right: 14 }),
-      xAxis: axisOption(theme, { name: 'Wavelength (nm)', format: 'nm', min: extent[0], max: extent[1] }),
+      grid: gridOption({ top: nominal ? 20 : 12, bottom: 34, right: 14 }),
+      xAxis: axisOption(theme, { name: 'Wavelength (nm)', format: 'nm', min: extent[0], max: extent[1], endLabels: false }),
       yAxis: axisOption(theme, { name: 'Transmission (%)', format: 'percent', min: 0, max: 100, vertical: true }),
       tooltip: tooltipOption(theme, 'axis', formatter),
-      dataZoom: xZoomOption(theme, 'nm', zoomRef.current, large ? 'filter' : 'none'),
+      dataZoom: xZoomOption(theme, 'nm', firstWindow, large ? 'filter' : 'none'),
       toolbox: boxZoomToolbox(theme),
       series: [annotations, ...curves],
     };
-    // zoomKey: rebuild when the first window changes from outside.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [prepared, hidden, theme, extent, visibleLines, nominal, zoomKey]);
+  }, [prepared, hidden, theme, identityDash, extent, visibleLines, nominal, firstWindow]);
 
-  const { syncBoxZoom } = controls;
-  useEffect(() => syncBoxZoom(), [option, syncBoxZoom]);
+  useAfterOption(controls.afterOption, option);
 
   const text = summary ?? describe(prepared, visibleLines);
   const label = `${title}: transmission (%) against wavelength (nm), ${prepared.length} curve${prepared.length === 1 ? '' : 's'}`;

@@ -1,7 +1,7 @@
 'use client';
 
 import type ReactEChartsCore from 'echarts-for-react/lib/core';
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import { instanceOf, type ChartEvents } from './chart-canvas';
 import type { LegendItem } from './chart-frame';
 import { downloadText, downloadUrl, fileNameFor } from './csv';
@@ -29,17 +29,19 @@ interface Options {
  */
 export function useChartControls({ title, fileName, theme, legend, csv, initialZoom = null }: Options) {
   const chartRef = useRef<ReactEChartsCore | null>(null);
-  const zoomRef = useRef<ZoomWindow | null>(initialZoom);
+  // The reader's own zoom window, null until they zoom. Kept out of the option so zooming never rebuilds it.
+  const zoomRef = useRef<ZoomWindow | null>(null);
   const [hidden, setHidden] = useState<ReadonlySet<string>>(() => new Set());
   const [boxZoom, setBoxZoom] = useState(false);
-  const [zoomKey, setZoomKey] = useState(0);
 
-  // A new initial window from the caller (another curve chosen) replaces the remembered one.
+  // A new first window from the caller (another curve chosen) wins over the remembered zoom.
+  // A layout effect, so it runs before the chart's own `useAfterOption` re-applies the zoom.
   const initialKey = initialZoom ? `${initialZoom[0]}:${initialZoom[1]}` : '';
-  useEffect(() => {
-    zoomRef.current = initialZoom;
-    setZoomKey((k) => k + 1);
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+  const appliedKey = useRef(initialKey);
+  useLayoutEffect(() => {
+    if (appliedKey.current === initialKey) return;
+    appliedKey.current = initialKey;
+    zoomRef.current = null;
   }, [initialKey]);
 
   const onEvents = useMemo<ChartEvents>(
@@ -74,15 +76,19 @@ export function useChartControls({ title, fileName, theme, legend, csv, initialZ
   }, [boxZoom, setBoxCursor]);
 
   /**
-   * Charts call this after each new option is drawn: replacing the option drops the
-   * box-zoom cursor, which must come back if the reader had switched it on.
+   * Run after each new option is drawn (see `useAfterOption`): replacing the option resets
+   * zoom and cursor, so the reader's zoom window and box-zoom mode are put back.
    */
-  const syncBoxZoom = useCallback(() => {
+  const afterOption = useCallback(() => {
+    const chart = instanceOf(chartRef);
+    if (!chart) return;
+    const zoom = zoomRef.current;
+    if (zoom) chart.dispatchAction({ type: 'dataZoom', startValue: zoom[0], endValue: zoom[1] });
     if (boxZoom) setBoxCursor(true);
   }, [boxZoom, setBoxCursor]);
 
+  // The datazoom event that follows records the whole range as the reader's choice.
   const resetZoom = useCallback(() => {
-    zoomRef.current = null;
     instanceOf(chartRef)?.dispatchAction({ type: 'dataZoom', start: 0, end: 100 });
   }, []);
 
@@ -102,18 +108,20 @@ export function useChartControls({ title, fileName, theme, legend, csv, initialZ
 
   return {
     chartRef,
-    zoomRef,
-    /** Changes whenever the remembered zoom was replaced from outside; include it in option memo keys. */
-    zoomKey,
     onEvents,
     hidden,
     toggle,
     legendItems,
     boxZoom,
     toggleBoxZoom,
-    syncBoxZoom,
+    afterOption,
     resetZoom,
     downloadPng,
     downloadCsv,
   };
+}
+
+/** Re-applies the reader's zoom and box-zoom mode each time a chart's option is replaced. */
+export function useAfterOption(afterOption: () => void, option: unknown): void {
+  useLayoutEffect(() => afterOption(), [afterOption, option]);
 }

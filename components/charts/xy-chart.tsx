@@ -1,6 +1,6 @@
 'use client';
 
-import { useCallback, useEffect, useId, useMemo, type ReactNode } from 'react';
+import { useCallback, useId, useMemo, type ReactNode } from 'react';
 import { ChartCanvas } from './chart-canvas';
 import { ChartActions, ChartFrame, ChartLegend, type LegendItem } from './chart-frame';
 import { seriesToCsv } from './csv';
@@ -18,7 +18,7 @@ import {
   tooltipRow,
   xZoomOption,
 } from './options';
-import { useChartControls } from './use-chart-controls';
+import { useAfterOption, useChartControls } from './use-chart-controls';
 import { useChartTheme, type ChartTheme } from './use-chart-theme';
 
 export interface XYSeries {
@@ -88,7 +88,7 @@ const ALL_SYMBOLS_UP_TO = 24;
 
 function styleOf(theme: ChartTheme, p: Prepared, identityDash: boolean) {
   const s = theme.series(p.slot);
-  const dash = p.dashed ? [...theme.coneDash] : identityDash && s.dash !== 'solid' ? [...s.dash] : 'solid';
+  const dash: 'solid' | number[] = p.dashed ? [...theme.coneDash] : identityDash && s.dash !== 'solid' ? [...s.dash] : 'solid';
   return { color: s.color, width: s.width, symbol: s.symbol, dash };
 }
 
@@ -139,6 +139,8 @@ export function XYChart({
 
   // Dash carries meaning when the caller uses it (a fit); otherwise, at night, it tells series apart.
   const identityDash = theme.view === 'night' && !prepared.some((p) => p.dashed);
+  // Markers tell solid lines apart without colour; a lone line, or a dashed fit, needs none.
+  const markersFor = (p: Prepared) => p.type === 'scatter' || (prepared.length > 1 && !p.dashed);
 
   const legend = useMemo<LegendItem[]>(
     () =>
@@ -150,9 +152,10 @@ export function XYChart({
           color: s.color,
           width: p.type === 'scatter' ? 0 : s.width,
           dash: s.dash === 'solid' ? 'solid' : s.dash,
-          symbol: s.symbol,
+          symbol: markersFor(p) ? s.symbol : undefined,
         };
       }),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
     [prepared, theme, identityDash],
   );
 
@@ -162,7 +165,7 @@ export function XYChart({
   );
 
   const controls = useChartControls({ title, fileName, theme, legend, csv });
-  const { hidden, zoomRef } = controls;
+  const { hidden } = controls;
 
   const option = useMemo(() => {
     const shown = prepared.filter((p) => !hidden.has(p.key));
@@ -170,14 +173,14 @@ export function XYChart({
     const byKey = new Map(shown.map((p) => [p.key, p]));
     const anyLine = shown.some((p) => p.type === 'line');
 
-    const drawn = shown.flatMap((p) => {
+    const drawn = shown.flatMap<Record<string, unknown>>((p) => {
       const s = styleOf(theme, p, identityDash);
       const data = p.x.map((x, i) => [x, p.y[i]]);
       const sym = symbolStyle(s.symbol, s.color, theme);
       if (p.type === 'scatter') {
         return [{ type: 'scatter', id: `s-${p.key}`, name: p.name, data, symbolSize: 8, ...sym, large, z: 5, emphasis: { scale: 1.4 } }];
       }
-      const few = p.x.length <= ALL_SYMBOLS_UP_TO;
+      const few = markersFor(p) && p.x.length <= ALL_SYMBOLS_UP_TO;
       const line = {
         type: 'line',
         id: `s-${p.key}`,
@@ -191,7 +194,7 @@ export function XYChart({
         emphasis: { disabled: true },
         z: 4,
       };
-      if (few || p.x.length < 2) return [line];
+      if (few || !markersFor(p) || p.x.length < 2) return [line];
       const step = (p.x.length - 1) / 8;
       const offset = (Number(p.key) * 0.29) % 1;
       const marks = Array.from({ length: 8 }, (_, k) => data[Math.min(p.x.length - 1, Math.round((k + offset) * step))]);
@@ -214,6 +217,10 @@ export function XYChart({
             fontFamily: theme.fontText,
             fontSize: 10,
             fontWeight: m.emphasis ? 600 : 400,
+            // A panel-coloured backing keeps the name legible where it crosses a curve.
+            backgroundColor: theme.panel,
+            padding: [2, 1],
+            borderRadius: 2,
           },
         };
       });
@@ -261,14 +268,14 @@ export function XYChart({
         vertical: true,
       }),
       tooltip: tooltipOption(theme, anyLine ? 'axis' : 'item', formatter),
-      dataZoom: zoom ? xZoomOption(theme, xFormat, zoomRef.current, large ? 'filter' : 'none') : undefined,
+      dataZoom: zoom ? xZoomOption(theme, xFormat, null, large ? 'filter' : 'none') : undefined,
       toolbox: zoom ? boxZoomToolbox(theme) : undefined,
       series: [annotations, ...drawn],
     };
-  }, [prepared, hidden, theme, identityDash, markers, yAsPercent, yFmt, xFormat, xName, yName, xMin, xMax, yMin, yMax, zoom, zoomRef]);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [prepared, hidden, theme, identityDash, markers, yAsPercent, yFmt, xFormat, xName, yName, xMin, xMax, yMin, yMax, zoom]);
 
-  const { syncBoxZoom } = controls;
-  useEffect(() => syncBoxZoom(), [option, syncBoxZoom]);
+  useAfterOption(controls.afterOption, option);
 
   const label = `${title}: ${yName} against ${xName}`;
   return (
