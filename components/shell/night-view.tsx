@@ -1,20 +1,24 @@
 'use client';
 
-import { useEffect, useState } from 'react';
+import { useSyncExternalStore } from 'react';
 
 const KEY = 'bandcone:view';
+const EVENT = 'bandcone:view';
 export const NIGHT_VIEW_BOOT = `try{if(localStorage.getItem('${KEY}')==='night')document.documentElement.dataset.view='night'}catch(e){}`;
 
+function subscribe(onChange: () => void) {
+  window.addEventListener(EVENT, onChange);
+  return () => window.removeEventListener(EVENT, onChange);
+}
+const isNight = () => document.documentElement.dataset.view === 'night';
+const noop = () => () => {};
+
 export function NightViewToggle() {
-  const [night, setNight] = useState(false);
-  const [ready, setReady] = useState(false);
-  useEffect(() => {
-    setNight(document.documentElement.dataset.view === 'night');
-    setReady(true);
-  }, []);
+  const night = useSyncExternalStore(subscribe, isNight, () => false);
+  // True only once hydrated, so tests (and impatient fingers) never click a dead button.
+  const ready = useSyncExternalStore(noop, () => true, () => false);
   function toggle() {
     const next = !night;
-    setNight(next);
     if (next) document.documentElement.dataset.view = 'night';
     else delete document.documentElement.dataset.view;
     try {
@@ -22,7 +26,7 @@ export function NightViewToggle() {
     } catch {
       /* private mode: the view still changes for this page */
     }
-    window.dispatchEvent(new Event('bandcone:view'));
+    window.dispatchEvent(new Event(EVENT));
   }
   return (
     <button

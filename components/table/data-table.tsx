@@ -9,7 +9,8 @@ import {
 // Sortable headers, right-aligned numbers, sticky header, pages with the total.
 export function DataTable<T>(props: {
   data: T[];
-  columns: ColumnDef<T, any>[]; // eslint-disable-line @typescript-eslint/no-explicit-any
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  columns: ColumnDef<T, any>[];
   pageSize?: number;
   initialSort?: SortingState;
   caption: string;
