@@ -7,7 +7,8 @@ import { createOptic, listOptics } from '@/lib/optics/store';
 // Deliberately public: visitors get the example optics so the cone study works signed out.
 export const GET = withErrors(async (req: Request) => {
   const actor = await currentActor(req);
-  return NextResponse.json({ items: await listOptics(actor) });
+  const items = await listOptics(actor);
+  return NextResponse.json({ items, total: items.length });
 });
 
 export const POST = withErrors(async (req: Request) => {

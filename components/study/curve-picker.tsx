@@ -1,0 +1,242 @@
+'use client';
+
+import { useEffect, useId, useRef, useState } from 'react';
+import { formatNm } from '@/components/charts/format';
+import { findLine } from '@/lib/engine/lines';
+import type { StudyCurve } from '@/lib/study/types';
+
+type Hit = { id: number; label: string; lines: string[]; cwlNm: number | null; fwhmNm: number | null; status: string; aoiDeg?: number };
+
+const lineNames = (ids: string[]) => ids.map((id) => findLine(id)?.name ?? id).join(' + ');
+
+/** Finds catalogue curves by words through GET /api/curves, the same search the catalogue uses. */
+export function CatalogueSearch({ exclude, onPick, disabled }: { exclude: number[]; onPick: (id: number) => void; disabled: boolean }) {
+  const id = useId();
+  const [q, setQ] = useState('');
+  const [hits, setHits] = useState<Hit[] | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [loading, setLoading] = useState(false);
+
+  const text = q.trim();
+  const searching = text.length >= 2;
+  useEffect(() => {
+    if (!searching) return;
+    const ctrl = new AbortController();
+    const timer = setTimeout(async () => {
+      setLoading(true);
+      try {
+        const res = await fetch(`/api/curves?q=${encodeURIComponent(text)}&pageSize=8`, { signal: ctrl.signal });
+        const body = await res.json().catch(() => null);
+        if (!res.ok) throw new Error(body?.error ?? `The catalogue answered ${res.status}.`);
+        setHits((body?.items ?? []) as Hit[]);
+        setError(null);
+      } catch (e) {
+        if ((e as Error).name !== 'AbortError') setError((e as Error).message);
+      } finally {
+        setLoading(false);
+      }
+    }, 250);
+    return () => {
+      ctrl.abort();
+      clearTimeout(timer);
+    };
+  }, [text, searching]);
+  const shownHits = searching ? hits : null;
+  const shownError = searching ? error : null;
+
+  return (
+    <div className="space-y-2">
+      <label htmlFor={id} className="block text-xs font-medium">
+        Add a curve from the catalogue
+      </label>
+      <input
+        id={id}
+        type="search"
+        value={q}
+        disabled={disabled}
+        onChange={(e) => setQ(e.target.value)}
+        placeholder={disabled ? 'Four curves at most: remove one first' : 'Label, maker, line… e.g. OIII 3nm'}
+        className="w-full rounded-card border border-rule bg-panel px-2 py-1.5 text-sm disabled:opacity-60"
+        aria-describedby={`${id}-status`}
+      />
+      <p id={`${id}-status`} className="sr-only" aria-live="polite">
+        {loading ? 'Searching' : shownHits ? `${shownHits.length} curves found` : ''}
+      </p>
+      {shownError ? <p className="text-xs text-bad">{shownError}</p> : null}
+      {shownHits ? (
+        shownHits.length ? (
+          <ul className="max-h-64 divide-y divide-rule/60 overflow-auto rounded-card border border-rule" aria-label="Matching curves">
+            {shownHits.map((h) => {
+              const taken = exclude.includes(h.id);
+              return (
+                <li key={h.id}>
+                  <button
+                    type="button"
+                    disabled={taken || disabled}
+                    onClick={() => {
+                      onPick(h.id);
+                      setQ('');
+                    }}
+                    className="flex w-full items-baseline gap-2 px-2 py-1.5 text-left text-sm hover:bg-accent/5 disabled:opacity-50"
+                  >
+                    <span className="figures shrink-0 text-xs text-muted">#{h.id}</span>
+                    <span className="min-w-0 flex-1 truncate">{h.label}</span>
+                    <span className="figures shrink-0 text-xs text-muted">
+                      {lineNames(h.lines)} {h.fwhmNm != null ? `· ${formatNm(h.fwhmNm)}` : ''}
+                    </span>
+                  </button>
+                </li>
+              );
+            })}
+          </ul>
+        ) : (
+          <p className="text-xs text-muted">No curve matches “{text}”.</p>
+        )
+      ) : null}
+    </div>
+  );
+}
+
+type PreviewBody = {
+  points: { wavelengthNm: number[]; transmission: number[] };
+  assumed: { wavelengthUnit: string; transmissionUnit: string; delimiter: string; headerLines: number } | null;
+  metrics: { peakT: number; cwlNm: number | null; fwhmNm: number | null };
+  warnings: string[];
+};
+
+/** Reads pasted or uploaded data through POST /api/curves/preview, which stores nothing. */
+export function PasteCurve({ onAdd, disabled, count }: { onAdd: (c: StudyCurve) => void; disabled: boolean; count: number }) {
+  const id = useId();
+  const [text, setText] = useState('');
+  const [label, setLabel] = useState('');
+  const [aoi, setAoi] = useState('0');
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<{ message: string; details: string[] } | null>(null);
+  const [note, setNote] = useState<string | null>(null);
+  const fileRef = useRef<HTMLInputElement>(null);
+
+  async function read(file: Blob, name: string) {
+    setBusy(true);
+    setError(null);
+    setNote(null);
+    try {
+      const form = new FormData();
+      form.append('file', file, name);
+      const res = await fetch('/api/curves/preview', { method: 'POST', body: form });
+      const body = await res.json().catch(() => null);
+      if (!res.ok) {
+        const details = Array.isArray(body?.details) ? body.details.slice(0, 5).map((d: { line?: number; message: string }) => (d.line ? `line ${d.line}: ${d.message}` : d.message)) : [];
+        setError({ message: body?.error ?? `The reader answered ${res.status}.`, details });
+        return;
+      }
+      const p = body as PreviewBody;
+      const aoiDeg = Number(aoi.replace(',', '.'));
+      const n = count + 1;
+      onAdd({
+        key: `p${Date.now().toString(36)}`,
+        id: null,
+        label: label.trim() || (name !== 'pasted.txt' ? name : `Pasted curve ${n}`),
+        source: 'pasted',
+        status: null,
+        lines: [],
+        aoiDeg: Number.isFinite(aoiDeg) && aoiDeg >= 0 && aoiDeg <= 60 ? aoiDeg : 0,
+        nEff: null,
+        tempC: null,
+        cwlNm: p.metrics.cwlNm,
+        fwhmNm: p.metrics.fwhmNm,
+        peakT: p.metrics.peakT,
+        points: p.points,
+        set: null,
+      });
+      const a = p.assumed;
+      setNote(a ? `Read ${p.points.wavelengthNm.length} points as ${a.wavelengthUnit} and ${a.transmissionUnit}${a.headerLines ? `, skipping ${a.headerLines} header line(s)` : ''}.` : null);
+      setText('');
+      setLabel('');
+    } catch (e) {
+      setError({ message: (e as Error).message, details: [] });
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  return (
+    <details className="group rounded-card border border-rule">
+      <summary className="cursor-pointer px-2 py-1.5 text-xs font-medium hover:text-accent">Paste or upload your own curve</summary>
+      <div className="space-y-2 border-t border-rule p-2">
+        <p className="text-xs leading-snug text-muted">
+          Two columns, wavelength and transmission (nm, Å or µm; fraction, percent or OD). Read on the server and kept only in this page: not stored, and not
+          part of the shared link.
+        </p>
+        <label htmlFor={`${id}-text`} className="sr-only">
+          Curve data
+        </label>
+        <textarea
+          id={`${id}-text`}
+          rows={4}
+          value={text}
+          onChange={(e) => setText(e.target.value)}
+          placeholder={'650.0, 0.012\n650.5, 0.020\n…'}
+          className="figures w-full rounded-card border border-rule bg-panel px-2 py-1 text-xs"
+        />
+        <div className="grid grid-cols-[minmax(0,1fr)_5rem] gap-2">
+          <div>
+            <label htmlFor={`${id}-label`} className="block text-xs font-medium">
+              Name
+            </label>
+            <input id={`${id}-label`} value={label} onChange={(e) => setLabel(e.target.value)} className="w-full rounded-card border border-rule bg-panel px-2 py-1 text-sm" />
+          </div>
+          <div>
+            <label htmlFor={`${id}-aoi`} className="block text-xs font-medium">
+              AOI (°)
+            </label>
+            <input id={`${id}-aoi`} inputMode="decimal" value={aoi} onChange={(e) => setAoi(e.target.value)} className="figures w-full rounded-card border border-rule bg-panel px-2 py-1 text-sm" />
+          </div>
+        </div>
+        <div className="flex flex-wrap gap-2">
+          <button
+            type="button"
+            disabled={disabled || busy || !text.trim()}
+            onClick={() => read(new Blob([text], { type: 'text/plain' }), 'pasted.txt')}
+            className="rounded-card bg-accent px-3 py-1 text-xs text-accent-ink disabled:opacity-50"
+          >
+            {busy ? 'Reading…' : 'Add pasted curve'}
+          </button>
+          <button
+            type="button"
+            disabled={disabled || busy}
+            onClick={() => fileRef.current?.click()}
+            className="rounded-card border border-rule px-3 py-1 text-xs hover:border-accent disabled:opacity-50"
+          >
+            Upload a file…
+          </button>
+          <input
+            ref={fileRef}
+            type="file"
+            accept=".csv,.txt,.tsv,.dat,text/plain,text/csv"
+            className="sr-only"
+            tabIndex={-1}
+            aria-label="Curve file"
+            onChange={(e) => {
+              const f = e.target.files?.[0];
+              if (f) void read(f, f.name);
+              e.target.value = '';
+            }}
+          />
+        </div>
+        {note ? <p className="text-xs text-ok">{note}</p> : null}
+        {error ? (
+          <div role="alert" className="text-xs text-bad">
+            <p>{error.message}</p>
+            {error.details.length ? (
+              <ul className="list-disc pl-4">
+                {error.details.map((d) => (
+                  <li key={d}>{d}</li>
+                ))}
+              </ul>
+            ) : null}
+          </div>
+        ) : null}
+      </div>
+    </details>
+  );
+}

@@ -1,0 +1,233 @@
+/**
+ * The cone study's state as it lives in the address bar, so a study can be
+ * shared by its link. Values are kept as typed (strings) so half-typed input
+ * such as "2." survives a round trip; `resolveSettings` turns them into the
+ * numbers the engine takes, with a readable message for every value it cannot use.
+ *
+ *   curve   catalogue curve ids, comma-separated (at most four)
+ *   optic   a saved or example optic id
+ *   f obs field   a typed optic (f-number, obstruction ratio, chief-ray angle °), used instead of `optic`
+ *   map     "sine" for an aplanatic optic (tangent otherwise)
+ *   n       effective index (empty: each curve's fitted value, else 2.0)
+ *   shift   pre-shift, nm toward the red
+ *   t k tref   temperature °C, coefficient nm/°C, reference temperature °C
+ *   line    a catalogue line id (Ha, OIII, …) or any wavelength in nm
+ *   v       source radial velocity, km/s
+ */
+
+import { findLine, LINES } from '@/lib/engine/lines';
+import type { Mapping } from '@/lib/engine/types';
+import type { StudyOptic, StudySettings, TargetLine } from './types';
+
+export const MAX_STUDY_CURVES = 4;
+
+export interface StudyQuery {
+  curveIds: number[];
+  opticId: number | null;
+  f: string;
+  obs: string;
+  field: string;
+  map: Mapping;
+  n: string;
+  shift: string;
+  t: string;
+  k: string;
+  tref: string;
+  line: string;
+  v: string;
+}
+
+export type QueryField = 'f' | 'obs' | 'field' | 'n' | 'shift' | 't' | 'k' | 'tref' | 'line' | 'v';
+const TEXT_FIELDS: QueryField[] = ['f', 'obs', 'field', 'n', 'shift', 't', 'k', 'tref', 'line', 'v'];
+
+type ParamSource = URLSearchParams | Record<string, string | string[] | undefined>;
+
+function getAll(src: ParamSource, key: string): string[] {
+  if (src instanceof URLSearchParams) return src.getAll(key);
+  const v = src[key];
+  return v === undefined ? [] : Array.isArray(v) ? v : [v];
+}
+
+function first(src: ParamSource, key: string): string {
+  return (getAll(src, key)[0] ?? '').trim().slice(0, 40);
+}
+
+export function emptyQuery(): StudyQuery {
+  return { curveIds: [], opticId: null, f: '', obs: '', field: '', map: 'tangent', n: '', shift: '', t: '', k: '', tref: '', line: '', v: '' };
+}
+
+export function parseStudyQuery(src: ParamSource): StudyQuery {
+  const ids: number[] = [];
+  for (const raw of getAll(src, 'curve')) {
+    for (const part of raw.split(',')) {
+      const id = Number(part.trim());
+      if (Number.isInteger(id) && id > 0 && id <= 2_147_483_647 && !ids.includes(id)) ids.push(id);
+    }
+  }
+  const opticRaw = Number(first(src, 'optic'));
+  const q = emptyQuery();
+  q.curveIds = ids.slice(0, MAX_STUDY_CURVES);
+  q.opticId = Number.isInteger(opticRaw) && opticRaw > 0 ? opticRaw : null;
+  q.map = first(src, 'map') === 'sine' ? 'sine' : 'tangent';
+  for (const key of TEXT_FIELDS) q[key] = first(src, key);
+  return q;
+}
+
+/** The query string, in a fixed order and without empty values, so equal studies share one link. */
+export function studySearch(q: StudyQuery): string {
+  const p = new URLSearchParams();
+  if (q.curveIds.length) p.set('curve', q.curveIds.join(','));
+  const typed = q.f !== '' || q.obs !== '' || q.field !== '';
+  if (typed) {
+    for (const key of ['f', 'obs', 'field'] as const) if (q[key] !== '') p.set(key, q[key]);
+  } else if (q.opticId != null) p.set('optic', String(q.opticId));
+  if (q.map === 'sine') p.set('map', 'sine');
+  for (const key of ['n', 'shift', 't', 'k', 'tref', 'line', 'v'] as const) if (q[key] !== '') p.set(key, q[key]);
+  // Commas in the curve list read better unescaped, and are legal in a query.
+  return p.toString().replace(/%2C/g, ',');
+}
+
+/** Reads a decimal as people type it: a comma decimal separator is accepted. */
+export function readNumber(text: string): number | null {
+  const t = text.trim().replace(',', '.');
+  if (t === '' || !/^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(t)) return null;
+  const v = Number(t);
+  return Number.isFinite(v) ? v : null;
+}
+
+export const STUDY_LIMITS = {
+  f: { min: 0.5, max: 40, label: 'f-number', unit: '' },
+  obs: { min: 0, max: 0.9, label: 'Obstruction ratio', unit: '' },
+  field: { min: 0, max: 30, label: 'Chief-ray angle', unit: '°' },
+  n: { min: 1, max: 4, label: 'Effective index', unit: '' },
+  shift: { min: -50, max: 50, label: 'Pre-shift', unit: ' nm' },
+  t: { min: -80, max: 100, label: 'Temperature', unit: ' °C' },
+  k: { min: -1, max: 1, label: 'Temperature coefficient', unit: ' nm/°C' },
+  tref: { min: -80, max: 100, label: 'Reference temperature', unit: ' °C' },
+  v: { min: -29_979, max: 29_979, label: 'Radial velocity', unit: ' km/s' },
+} as const;
+
+type Limited = keyof typeof STUDY_LIMITS;
+
+/** A typed number checked against its range: null when empty, or a message saying what is wrong. */
+export function checkNumber(field: Limited, text: string): { value: number | null; error?: string } {
+  if (text.trim() === '') return { value: null };
+  const v = readNumber(text);
+  const l = STUDY_LIMITS[field];
+  if (v === null) return { value: null, error: `${l.label} “${text}” is not a number` };
+  if (v < l.min || v > l.max) return { value: null, error: `${l.label} must be between ${l.min} and ${l.max}${l.unit}` };
+  return { value: v };
+}
+
+const squash = (s: string) => s.toLowerCase().replace(/α/g, 'a').replace(/β/g, 'b').replace(/γ/g, 'g').replace(/[^a-z0-9]/g, '');
+
+/** Names people type for a line family, mapped to its strongest member. */
+const LINE_ALIASES: Record<string, string> = {
+  halpha: 'Ha',
+  hbeta: 'Hb',
+  hgamma: 'Hg',
+  sii: 'SII-671',
+  nii: 'NII-658',
+};
+
+/** A catalogue line id (case and punctuation forgiven) or a wavelength in nm. */
+export function readLine(text: string): { value: TargetLine | null; error?: string } {
+  const t = text.trim();
+  if (t === '') return { value: null };
+  const exact = findLine(t);
+  if (exact) return { value: { id: exact.id } };
+  const key = squash(t);
+  const byName = LINES.find((l) => squash(l.id) === key || squash(l.name) === key);
+  if (byName) return { value: { id: byName.id } };
+  if (LINE_ALIASES[key]) return { value: { id: LINE_ALIASES[key] } };
+  const nm = readNumber(t.replace(/\s*nm$/i, ''));
+  if (nm === null) return { value: null, error: `Line “${t}” is neither a catalogue line (${LINES.map((l) => l.id).join(', ')}) nor a wavelength in nm` };
+  if (nm < 200 || nm > 2500) return { value: null, error: 'A line wavelength must be between 200 and 2500 nm' };
+  return { value: { nm } };
+}
+
+export interface OpticChoice {
+  id: number;
+  name: string;
+  fNumber: number;
+  obstruction: number;
+  fieldAngleDeg: number;
+}
+
+export interface ResolvedStudy {
+  settings: StudySettings;
+  /** Per field, what could not be used; the setting then falls back to its default. */
+  errors: Partial<Record<QueryField | 'optic', string>>;
+  /** The optic the study fell back to or named, for the optic picker. */
+  opticSource: 'saved' | 'typed' | 'default';
+}
+
+/** The optic a study opens with when none is named: the example closest to a common fast astrograph. */
+export function defaultOptic(optics: readonly OpticChoice[]): StudyOptic {
+  const sorted = [...optics].sort((a, b) => Math.abs(a.fNumber - 2.2) - Math.abs(b.fNumber - 2.2) || a.id - b.id);
+  const o = sorted[0];
+  if (o) return { id: o.id, name: o.name, fNumber: o.fNumber, obstruction: o.obstruction, fieldAngleDeg: o.fieldAngleDeg, mapping: 'tangent' };
+  return { id: null, name: 'f/2.2, 0.40 obstruction', fNumber: 2.2, obstruction: 0.4, fieldAngleDeg: 0, mapping: 'tangent' };
+}
+
+/**
+ * Settings the engine can run, from the typed values. `fallbackLine` is the
+ * target when none is named (the first curve's own line).
+ */
+export function resolveSettings(q: StudyQuery, optics: readonly OpticChoice[], fallbackLine: TargetLine): ResolvedStudy {
+  const errors: ResolvedStudy['errors'] = {};
+  const num = (field: Limited) => {
+    const r = checkNumber(field, q[field]);
+    if (r.error) errors[field] = r.error;
+    return r.value;
+  };
+
+  let optic = defaultOptic(optics);
+  let opticSource: ResolvedStudy['opticSource'] = 'default';
+  const saved = q.opticId != null ? optics.find((o) => o.id === q.opticId) : undefined;
+  if (q.opticId != null && !saved) errors.optic = `Optic ${q.opticId} is not one you can use; showing ${optic.name} instead`;
+  if (saved) {
+    optic = { id: saved.id, name: saved.name, fNumber: saved.fNumber, obstruction: saved.obstruction, fieldAngleDeg: saved.fieldAngleDeg, mapping: 'tangent' };
+    opticSource = 'saved';
+  }
+  const typed = q.f !== '' || q.obs !== '' || q.field !== '';
+  if (typed) {
+    const f = num('f');
+    const obs = num('obs');
+    const field = num('field');
+    optic = {
+      id: null,
+      name: 'Typed optic',
+      fNumber: f ?? optic.fNumber,
+      obstruction: q.obs === '' ? 0 : (obs ?? optic.obstruction),
+      fieldAngleDeg: q.field === '' ? 0 : (field ?? optic.fieldAngleDeg),
+      mapping: 'tangent',
+    };
+    if (q.f === '') errors.f = 'Type the f-number of the optic';
+    opticSource = 'typed';
+  }
+  optic.mapping = q.map;
+
+  const lineRead = readLine(q.line);
+  if (lineRead.error) errors.line = lineRead.error;
+
+  const t = num('t');
+  const k = num('k');
+  const settings: StudySettings = {
+    optic,
+    nEff: num('n'),
+    preShiftNm: num('shift') ?? 0,
+    tempC: t,
+    tempCoeffNmPerC: k,
+    refTempC: num('tref'),
+    line: lineRead.value ?? fallbackLine,
+    radialVelocityKms: num('v') ?? 0,
+  };
+  return { settings, errors, opticSource };
+}
+
+/** The line a study targets when none is typed: the first curve's own line, else Hα. */
+export function fallbackLineFor(curves: readonly { lines: string[] }[]): TargetLine {
+  for (const c of curves) for (const id of c.lines) if (findLine(id)) return { id };
+  return { id: 'Ha' };
+}

@@ -1,0 +1,170 @@
+import { describe, expect, it } from 'vitest';
+import { computeStudy, coneRequestBody, studyCurve } from '@/lib/study/compute';
+import { studyCsv } from '@/lib/study/tables';
+import type { StudyCurve, StudySettings } from '@/lib/study/types';
+import { verdictFor } from '@/lib/study/verdict';
+
+const HA = 656.28;
+
+/** An ideal flat-top filter, T = peak inside [cwl ± w/2] with edges 1 pm wide, sampled every 0.05 nm. */
+function flatTop(cwl: number, w: number, peak = 0.9, key = 'p1'): StudyCurve {
+  const x: number[] = [];
+  const y: number[] = [];
+  for (let v = cwl - 30; v <= cwl + 30 + 1e-9; v += 0.05) {
+    x.push(Math.round(v * 1000) / 1000);
+    y.push(Math.abs(v - cwl) <= w / 2 ? peak : 0);
+  }
+  // Edges steep but not vertical, so the samples stay strictly increasing.
+  const lo = cwl - w / 2;
+  const hi = cwl + w / 2;
+  const pts = x.map((v, i) => [v, y[i]] as [number, number]).filter(([v]) => Math.abs(v - lo) > 0.002 && Math.abs(v - hi) > 0.002);
+  pts.push([lo - 0.0005, 0], [lo + 0.0005, peak], [hi - 0.0005, peak], [hi + 0.0005, 0]);
+  pts.sort((a, b) => a[0] - b[0]);
+  return {
+    key,
+    id: null,
+    label: `Ideal ${w} nm`,
+    source: 'pasted',
+    status: null,
+    lines: ['Ha'],
+    aoiDeg: 0,
+    nEff: null,
+    tempC: null,
+    cwlNm: cwl,
+    fwhmNm: w,
+    peakT: peak,
+    points: { wavelengthNm: pts.map((p) => p[0]), transmission: pts.map((p) => p[1]) },
+    set: null,
+  };
+}
+
+const settings = (over: Partial<StudySettings> = {}): StudySettings => ({
+  optic: { id: null, name: 'Typed optic', fNumber: 2, obstruction: 0, fieldAngleDeg: 0, mapping: 'tangent' },
+  nEff: 2,
+  preShiftNm: 0,
+  tempC: null,
+  tempCoeffNmPerC: null,
+  refTempC: null,
+  line: { id: 'Ha' },
+  radialVelocityKms: 0,
+  ...over,
+});
+
+/**
+ * Analytic reference from MODEL.md §5 alone: on axis (tangent mapping, no
+ * obstruction) tan θ = ρ/2N with the pupil uniform in ρ², so P(θ ≤ t) = tan²t·4N².
+ * A flat-top at [a, b] passes the line at λ when λ/s(θ) ∈ [a, b].
+ */
+function analyticTau(N: number, n: number, a: number, b: number, peak: number): number {
+  const cdf = (t: number) => Math.min(1, Math.tan(t) ** 2 * 4 * N * N);
+  const theta = (s: number) => (s >= 1 ? 0 : Math.asin(Math.min(1, n * Math.sqrt(1 - s * s))));
+  const upper = HA / b > 1 ? 0 : cdf(theta(HA / b));
+  const lower = HA / a >= 1 ? 0 : cdf(theta(HA / a));
+  return peak * Math.max(0, upper - lower);
+}
+
+describe('a study of an ideal flat-top passband', () => {
+  it('gives the analytic line throughput, and the speed-equivalent f-number by its definition', () => {
+    const curve = flatTop(HA + 1, 3);
+    const st = studyCurve(curve, settings());
+    const tau = st.onAxis.lines[0].throughput;
+    expect(tau).toBeCloseTo(analyticTau(2, 2, HA + 1 - 1.5, HA + 1 + 1.5, 0.9), 3);
+    // N_eq = N·sqrt(T_peak/τ) (MODEL.md §6).
+    expect(st.onAxis.lines[0].speedEquivalentFNumber).toBeCloseTo(2 * Math.sqrt(0.9 / tau), 9);
+    // A collimated beam sees the measured passband itself.
+    expect(st.onAxis.lines[0].collimated).toBeCloseTo(0.9, 9);
+  });
+
+  it('draws every chart from the same numbers the verdict states', () => {
+    const st = studyCurve(flatTop(HA + 0.5, 3), settings({ optic: { id: null, name: 'x', fNumber: 2.2, obstruction: 0.4, fieldAngleDeg: 8, mapping: 'tangent' }, preShiftNm: 0.3 }));
+    const tau = st.onAxis.lines[0].throughput;
+    const at = (s: { x: number[]; y: number[] }, x: number) => s.y[s.x.findIndex((v) => Math.abs(v - x) < 1e-9)];
+    expect(at(st.fSweep, 2.2)).toBeCloseTo(tau, 12);
+    expect(st.fieldSweep.y[0]).toBeCloseTo(tau, 12);
+    expect(st.fieldSweep.x[st.fieldSweep.x.length - 1]).toBe(8);
+    expect(st.edge!.throughput).toBe(st.fieldSweep.y[st.fieldSweep.y.length - 1]);
+    expect(at(st.shiftSweep, 0.3)).toBeCloseTo(tau, 12);
+    expect(at(st.shiftSweep, st.onAxis.bestPreShift!.nm)).toBeCloseTo(st.onAxis.bestPreShift!.throughput, 12);
+    // Nothing on the pre-shift chart beats the marked best.
+    expect(Math.max(...st.shiftSweep.y)).toBeLessThanOrEqual(st.onAxis.bestPreShift!.throughput + 1e-12);
+  });
+
+  it('puts the curve on the bandwidth explorer where its ideal twin passes the same light', () => {
+    const r = computeStudy([flatTop(HA + 1, 4)], settings());
+    const m = r.explorer!.markers[0];
+    expect(m.widthNm).toBeCloseTo(4, 2);
+    expect(m.shiftNm).toBeCloseTo(1, 2);
+    // The map's own cell for a 4 nm band at +1 nm: an ideal flat-top of peak 1, the curve has peak 0.9.
+    const col = r.explorer!.widthsNm.indexOf(4);
+    const row = r.explorer!.shiftsNm.reduce((best, v, i) => (Math.abs(v - 1) < Math.abs(r.explorer!.shiftsNm[best] - 1) ? i : best), 0);
+    expect(Math.abs(r.explorer!.shiftsNm[row] - 1)).toBeLessThan(0.1);
+    expect(r.explorer!.tau[row][col] * 0.9).toBeCloseTo(m.throughput, 1);
+  });
+});
+
+describe('the verdict in words', () => {
+  it('says how fast the optic behaves, where the best pre-shift is and what it gains', () => {
+    const st = studyCurve(flatTop(HA, 3), settings({ nEff: null }));
+    const v = verdictFor(st, settings().optic, 0);
+    const speed = v.items.find((i) => i.key === 'speed')!;
+    expect(speed.text).toMatch(/^This f\/2\.0 optic behaves like f\/\d+\.\d on this line/);
+    const best = v.items.find((i) => i.key === 'best-shift')!;
+    // The cone only moves a passband blueward, so the best pre-shift is toward the red.
+    expect(st.onAxis.bestPreShift!.nm).toBeGreaterThan(0);
+    expect(best.text).toMatch(/toward the red would raise Hα to \d+\.\d %, \d+\.\d points more\./);
+    expect(v.items.find((i) => i.key === 'neff')!.text).toMatch(/1\.8–2\.3/);
+  });
+
+  it('names the [N II] neighbours of Hα with their leakage', () => {
+    const st = studyCurve(flatTop(HA, 12), settings());
+    const v = verdictFor(st, settings().optic, 0);
+    const labels = v.items.filter((i) => i.key.startsWith('neighbour-')).map((i) => i.label);
+    expect(labels).toEqual(['[N II] 654.80 nm', '[N II] 658.35 nm']);
+    expect(v.items.find((i) => i.key === 'neighbour-NII-658')!.text).toMatch(/will not separate the two/);
+  });
+
+  it('says when nothing gets through', () => {
+    const st = studyCurve(flatTop(HA - 10, 2), settings());
+    const v = verdictFor(st, settings().optic, 0);
+    expect(v.headline).toMatch(/nothing gets through/);
+    expect(v.items.find((i) => i.key === 'speed')!.value).toBe('f/∞');
+  });
+});
+
+describe('exports and requests', () => {
+  it('writes every chart’s table into one CSV', () => {
+    const s = settings({ optic: { id: null, name: 'Typed optic', fNumber: 2.2, obstruction: 0.4, fieldAngleDeg: 8, mapping: 'tangent' } });
+    const csv = studyCsv(computeStudy([flatTop(HA + 1, 3)], s), s);
+    for (const title of [
+      '# verdict',
+      '# angle of incidence reaching the filter',
+      '# measured and cone-averaged curve',
+      '# line throughput against f-number',
+      '# line throughput across the field',
+      '# line throughput against pre-shift',
+      '# ideal flat-top passband',
+      '# verdict in words',
+    ]) {
+      expect(csv).toContain(title);
+    }
+    const fRows = csv.split('# line throughput against f-number')[1].split('\r\n\r\n')[0].trim().split('\r\n');
+    expect(fRows[1]).toBe('f_number,Ideal 3 nm (pasted)');
+    expect(fRows.length - 2).toBe(46);
+  });
+
+  it('builds the API request a script would send for a catalogue curve', () => {
+    const curve = { ...flatTop(HA, 3), id: 42, key: 'c42' };
+    const body = coneRequestBody(curve, settings({ preShiftNm: 0.5, tempC: 5, tempCoeffNmPerC: 0.01, radialVelocityKms: -20, line: { nm: 656.3 } }), 8);
+    expect(body).toEqual({
+      curveId: 42,
+      optic: { fNumber: 2, obstruction: 0, fieldAngleDeg: 8 },
+      nEff: 2,
+      preShiftNm: 0.5,
+      tempC: 5,
+      tempCoeffNmPerC: 0.01,
+      refTempC: 20,
+      lineNm: 656.3,
+      radialVelocityKms: -20,
+    });
+  });
+});
