@@ -55,7 +55,7 @@ export function parseFiles(files: IncomingFile[], metadata: SubmissionMetadata):
   return files.map((file) => {
     let read;
     try {
-      read = readCurveText(new Uint8Array(file.bytes));
+      read = readCurveText(new Uint8Array(file.bytes), metadata.files?.find((f) => f.name === file.name)?.reader);
     } catch (err) {
       if (err instanceof CurveReadError) {
         const details: ErrorDetail[] = err.details.map((d) => ({ ...d, message: `${file.name}: ${d.message}` }));

@@ -13,7 +13,8 @@ export function DerivedNumbers({ metrics, lines }: { metrics: PreviewMetrics; li
     ['Blocking', metrics.blockingOd == null ? MISSING : `OD ${fixed(metrics.blockingOd, 1)}`],
   ];
   if (metrics.rangeNm) rows.push(['Measured range', `${fixed(metrics.rangeNm[0], 1)}–${fixed(metrics.rangeNm[1], 1)} nm`]);
-  if (metrics.sampleCount !== undefined) rows.push(['Samples', `${metrics.sampleCount}${metrics.medianStepNm !== undefined ? ` · step ${formatNm(metrics.medianStepNm, 3)}` : ''}`]);
+  if (metrics.sampleCount !== undefined) rows.push(['Samples', String(metrics.sampleCount)]);
+  if (metrics.medianStepNm !== undefined) rows.push(['Median step', formatNm(metrics.medianStepNm, 3)]);
   const wanted = new Set(lines ?? []);
   const lineRows = metrics.lines.filter((l) => wanted.size === 0 ? l.transmission > 0.01 : wanted.has(l.id));
   return (

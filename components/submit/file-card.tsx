@@ -23,7 +23,7 @@ export function ProblemBox({ problem, title }: { problem: FileProblem; title: st
   return (
     <div role="alert" className="rounded-card border border-bad/60 bg-bad/5 p-3 text-sm" data-testid="file-problem">
       <p className="font-medium text-bad">{title}</p>
-      <p>{problem.message}</p>
+      {problem.lines.length > 0 ? <p>Fix these lines in the file, or change how it is read below:</p> : <p>{problem.message}</p>}
       {problem.lines.length > 0 ? (
         <ul className="mt-1 space-y-0.5">
           {problem.lines.map((l, i) => (
@@ -83,7 +83,7 @@ export function FileCard(props: {
             <span className="flex items-center rounded-r-card border border-l-0 border-rule px-2 text-sm text-muted">°</span>
           </div>
         </div>
-        <p id={`${idp}-aoi-help`} className="min-w-0 flex-1 text-xs text-muted">
+        <p id={`${idp}-aoi-help`} className="w-full min-w-0 text-xs text-muted sm:w-auto sm:flex-1">
           The angle between the beam and the filter normal for this measurement. The passband moves blueward with angle, so the model needs it to bring the curve back to normal incidence{props.total > 1 ? ', and the set needs one per file to fit the effective index' : ''}.
         </p>
         {props.aoiError ? <p id={`${idp}-aoi-error`} role="alert" className="w-full text-sm text-bad">{props.aoiError}</p> : null}

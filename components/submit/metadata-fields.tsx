@@ -1,6 +1,6 @@
 'use client';
 
-import type { FieldErrors, UseFormReturn } from 'react-hook-form';
+import { useWatch, type FieldErrors, type UseFormReturn } from 'react-hook-form';
 import { Field, inputClass } from '@/components/forms/field';
 import { LINES } from '@/lib/engine/lines';
 import { INSTRUMENTS, type SubmissionMetadataInput } from '@/lib/schemas/submission';
@@ -40,9 +40,9 @@ function Section({ title, children, id }: { title: string; id: string; children:
 
 /** The filter and its test method: the fields of PRODUCT.md, each with its reason beside it. */
 export function MetadataFields({ form, idPrefix = 'm', fileCount }: { form: UseFormReturn<MetadataForm>; idPrefix?: string; fileCount: number }) {
-  const { register, watch, formState } = form;
+  const { register, formState } = form;
   const errors = formState.errors;
-  const beam = watch('method.beam');
+  const beam = useWatch({ control: form.control, name: 'method.beam' });
   const err = (path: string) => errorAt(errors, path);
   const aria = (path: string) => ({ 'aria-invalid': !!err(path), 'aria-describedby': err(path) ? `${idPrefix}-${path}-error` : undefined });
   const id = (path: string) => `${idPrefix}-${path}`;
@@ -63,7 +63,7 @@ export function MetadataFields({ form, idPrefix = 'm', fileCount }: { form: UseF
           <div className="mt-1 flex flex-wrap gap-x-4 gap-y-1">
             {LINES.map((l) => (
               <label key={l.id} className="inline-flex items-center gap-1.5 text-sm">
-                <input type="checkbox" value={l.id} {...register('lines')} />
+                <input type="checkbox" value={l.id} {...register('lines')} className="accent-accent" />
                 <span>{l.name}</span>
                 <span className="figures text-xs text-muted">{l.airNm.toFixed(2)}</span>
               </label>
@@ -153,11 +153,11 @@ export function MetadataFields({ form, idPrefix = 'm', fileCount }: { form: UseF
       <Section title="Licence" id={id('licence')}>
         <div className="space-y-2 text-sm">
           <label className="flex items-start gap-2">
-            <input type="radio" value="CC-BY-4.0" {...register('licence')} className="mt-1" />
+            <input type="radio" value="CC-BY-4.0" {...register('licence')} className="mt-1 accent-accent" />
             <span><span className="font-medium">CC BY 4.0</span> — anyone may reuse the data with credit to you (the default).</span>
           </label>
           <label className="flex items-start gap-2">
-            <input type="radio" value="CC0-1.0" {...register('licence')} className="mt-1" />
+            <input type="radio" value="CC0-1.0" {...register('licence')} className="mt-1 accent-accent" />
             <span><span className="font-medium">CC0 1.0</span> — public domain, no credit required.</span>
           </label>
           {err('licence') ? <p role="alert" className="text-bad">{err('licence')}</p> : null}

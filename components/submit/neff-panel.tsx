@@ -9,32 +9,16 @@ export type AngleCwl = { name: string; aoiDeg: number; cwlNm: number };
 
 /** The effective index fitted from the set's CWLs (MODEL.md §7), refitted whenever an AOI or a preview changes. */
 export function NeffPanel({ points }: { points: AngleCwl[] }) {
-  const [fit, setFit] = useState<NeffFit>();
-  const [error, setError] = useState<string>();
-  const [busy, setBusy] = useState(false);
+  const [outcome, setOutcome] = useState<{ key: string; fit?: NeffFit; error?: string }>();
   const key = JSON.stringify(points.map((p) => [p.aoiDeg, p.cwlNm]));
   const distinct = new Set(points.map((p) => p.aoiDeg)).size;
 
   useEffect(() => {
-    if (distinct < 2) {
-      setFit(undefined);
-      setError(undefined);
-      return;
-    }
+    if (distinct < 2) return;
     const controller = new AbortController();
-    setBusy(true);
     const t = setTimeout(() => {
       fitNeff(points.map(({ aoiDeg, cwlNm }) => ({ aoiDeg, cwlNm })), controller.signal)
-        .then((r) => {
-          setBusy(false);
-          if (r.ok) {
-            setFit(r.data);
-            setError(undefined);
-          } else {
-            setFit(undefined);
-            setError(r.failure.error);
-          }
-        })
+        .then((r) => setOutcome(r.ok ? { key, fit: r.data } : { key, error: r.failure.error }))
         .catch(() => undefined);
     }, 300);
     return () => {
@@ -44,6 +28,10 @@ export function NeffPanel({ points }: { points: AngleCwl[] }) {
     // the key captures every input of the fit
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [key, distinct]);
+
+  const busy = outcome?.key !== key;
+  const fit = outcome?.fit;
+  const error = busy ? undefined : outcome?.error;
 
   return (
     <section aria-labelledby="neff-heading" className="space-y-2 rounded-card border border-rule bg-panel p-4" data-testid="neff-panel">

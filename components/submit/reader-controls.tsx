@@ -18,7 +18,7 @@ function Choice(props: { id: string; label: string; value: string | undefined; g
         {overridden ? <span className="ml-1 text-accent">(your choice)</span> : null}
       </label>
       <select id={props.id} value={props.value ?? ''} onChange={(e) => props.onChange(e.target.value === '' ? undefined : e.target.value)} className={selectClass}>
-        <option value="">{props.guess !== undefined ? `${props.words[props.guess] ?? props.guess} (read from file)` : 'guess from the file'}</option>
+        <option value="">{props.guess !== undefined ? `${props.words[props.guess] ?? props.guess} (auto)` : 'guess from the file'}</option>
         {Object.entries(props.words).map(([k, w]) => <option key={k} value={k}>{w}</option>)}
       </select>
     </div>
@@ -39,7 +39,7 @@ export function ReaderControls(props: { idPrefix: string; assumed: Assumed | nul
   const id = (k: string) => `${props.idPrefix}-${k}`;
   return (
     <fieldset className="space-y-2">
-      <legend className="text-sm font-medium">How the file was read</legend>
+      <legend className="text-sm font-medium">How the file was read <span className="font-normal text-muted">— “auto” is the reader’s guess; change any that is wrong</span></legend>
       <div className="grid grid-cols-2 gap-2 sm:grid-cols-4">
         <Choice id={id('wl')} label="Wavelength unit" value={options.wavelengthUnit} guess={assumed?.wavelengthUnit} words={WL} onChange={(v) => set('wavelengthUnit', v as ReaderOptions['wavelengthUnit'])} />
         <Choice id={id('tr')} label="Transmission unit" value={options.transmissionUnit} guess={assumed?.transmissionUnit} words={TR} onChange={(v) => set('transmissionUnit', v as ReaderOptions['transmissionUnit'])} />

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { readerOptionsSchema } from './model';
 
 export const LINE_IDS = ['Ha', 'Hb', 'Hg', 'OIII', 'OIII-496', 'NII-658', 'NII-655', 'SII-671', 'SII-673', 'HeII', 'OI', 'ArIII', 'OII'] as const;
 export const INSTRUMENTS = ['spectrophotometer', 'spectrograph', 'monochromator', 'other'] as const;
@@ -36,7 +37,8 @@ export const submissionMetadataSchema = z.object({
   notes: optionalText(4000),
   licence: z.enum(['CC-BY-4.0', 'CC0-1.0']).default('CC-BY-4.0'),
   method: methodSchema,
-  files: z.array(z.object({ name: z.string().min(1).max(255), aoiDeg: z.number().min(0).max(60) })).max(20).optional(),
+  // `reader` carries the overrides the contributor chose in the live preview, so the stored curve is the one they saw.
+  files: z.array(z.object({ name: z.string().min(1).max(255), aoiDeg: z.number({ error: 'AOI must be a number' }).min(0, 'AOI cannot be negative').max(60, 'AOI above 60° is outside what we model'), reader: readerOptionsSchema.optional() })).max(20).optional(),
 });
 
 export type SubmissionMetadata = z.output<typeof submissionMetadataSchema>;
@@ -48,3 +50,22 @@ export const reviewDecisionSchema = z.object({
 }).refine((d) => d.decision === 'verify' || d.note.length > 0, { message: 'Say why in the note', path: ['note'] });
 
 export const threadReplySchema = z.object({ body: z.string().trim().min(1, 'Write something').max(4000) });
+
+// The live preview runs the checks on whatever the form holds so far: every field optional, a bad one dropped rather than refused.
+const loose = <T extends z.ZodType>(t: T) => t.optional().catch(undefined);
+export const previewMetadataSchema = z.object({
+  lines: loose(z.array(z.string())),
+  nominalCwlNm: loose(z.number().positive()),
+  nominalFwhmNm: loose(z.number().positive()),
+  declaredPreShiftNm: loose(z.number()),
+  method: loose(
+    z.object({
+      instrument: loose(z.string()),
+      resolutionNm: loose(z.number().positive()),
+      beam: loose(z.enum(['collimated', 'converging'])),
+      beamFNumber: loose(z.number().positive()),
+      aoiDeg: loose(z.number().min(0).max(60)),
+      temperatureC: loose(z.number()),
+    }),
+  ),
+});
