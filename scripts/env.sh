@@ -71,10 +71,18 @@ start_cluster() {
   fi
 }
 
+# Background services start in their own process group (setsid) so that stopping
+# one also stops what npx started beneath it.
+start_bg() {
+  local logfile="$1"; shift
+  setsid "$@" >"$logfile" 2>&1 &
+  STARTED_PIDS+=($!)
+}
+
 stop_started() {
   local pid
   for pid in "${STARTED_PIDS[@]:-}"; do
-    [ -n "$pid" ] && kill "$pid" 2>/dev/null || true
+    [ -n "$pid" ] && { kill -TERM -- "-$pid" 2>/dev/null || kill "$pid" 2>/dev/null || true; }
   done
   for pid in "${STARTED_PIDS[@]:-}"; do
     [ -n "$pid" ] && wait "$pid" 2>/dev/null || true

@@ -27,13 +27,15 @@ npx tsx seeds/run.ts --if-empty
 
 if [ -z "${SMTP_URL_EXTERNAL:-}" ] && [[ "$SMTP_URL" == smtp://127.0.0.1:* ]]; then
   log "starting the mail catcher on 127.0.0.1:$SMTP_PORT"
-  SMTP_CATCHER_PORT="$SMTP_PORT" npx tsx scripts/mail-catcher.ts &
-  STARTED_PIDS+=($!)
+  export SMTP_CATCHER_PORT="$SMTP_PORT"
+  start_bg "$ROOT/.data/mail-catcher.log" npx tsx scripts/mail-catcher.ts
 fi
 
 build_if_stale
 log "serving on http://127.0.0.1:$PORT"
-npx next start -H 127.0.0.1 -p "$PORT" &
+start_bg "$ROOT/.data/server.log" npx next start -H 127.0.0.1 -p "$PORT"
+log "server log: .data/server.log"
+tail -n 0 -f "$ROOT/.data/server.log" &
 STARTED_PIDS+=($!)
 wait_for_http "http://127.0.0.1:$PORT/api/lines" 240 || { log "the app did not answer"; exit 1; }
 

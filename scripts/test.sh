@@ -33,12 +33,11 @@ npx tsx seeds/run.ts
 log "type-checking"
 npx tsc --noEmit
 
-SMTP_CATCHER_PORT="$SMTP_PORT" npx tsx scripts/mail-catcher.ts > "$ROOT/.data/test-catcher-$PORT.log" 2>&1 &
-STARTED_PIDS+=($!)
+export SMTP_CATCHER_PORT="$SMTP_PORT"
+start_bg "$ROOT/.data/test-catcher-$PORT.log" npx tsx scripts/mail-catcher.ts
 
 build_if_stale
-npx next start -H 127.0.0.1 -p "$PORT" > "$ROOT/.data/test-server-$PORT.log" 2>&1 &
-STARTED_PIDS+=($!)
+start_bg "$ROOT/.data/test-server-$PORT.log" npx next start -H 127.0.0.1 -p "$PORT"
 wait_for_http "$TEST_BASE_URL/api/lines" 240 || { log "test server did not answer"; tail -n 40 "$ROOT/.data/test-server-$PORT.log"; exit 1; }
 
 log "running every test"

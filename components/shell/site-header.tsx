@@ -11,6 +11,7 @@ export async function SiteHeader() {
     { href: '/curves', label: 'Catalogue', show: true },
     { href: '/study', label: 'Cone study', show: true },
     { href: '/compare', label: 'Compare', show: true },
+    { href: '/optics', label: 'Optics', show: true },
     { href: '/submit', label: 'Submit', show: true },
     { href: '/review', label: 'Review queue', show: hasRole(actor, 'moderator') },
     { href: '/admin/users', label: 'Admin', show: hasRole(actor, 'admin') },

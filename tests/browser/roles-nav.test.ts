@@ -25,16 +25,16 @@ async function navLabels(email?: string) {
 describe('each role sees its own navigation', () => {
   it('a visitor sees the public pages and a sign-in link', async () => {
     const labels = await navLabels();
-    expect(labels).toEqual(['Catalogue', 'Cone study', 'Compare', 'Submit']);
+    expect(labels).toEqual(['Catalogue', 'Cone study', 'Compare', 'Optics', 'Submit']);
   });
   it('a contributor also sees their account', async () => {
-    expect(await navLabels('contributor@bandcone.test')).toEqual(['Catalogue', 'Cone study', 'Compare', 'Submit', 'Account']);
+    expect(await navLabels('contributor@bandcone.test')).toEqual(['Catalogue', 'Cone study', 'Compare', 'Optics', 'Submit', 'Account']);
   });
   it('a moderator also sees the review queue', async () => {
-    expect(await navLabels('moderator@bandcone.test')).toEqual(['Catalogue', 'Cone study', 'Compare', 'Submit', 'Review queue', 'Account']);
+    expect(await navLabels('moderator@bandcone.test')).toEqual(['Catalogue', 'Cone study', 'Compare', 'Optics', 'Submit', 'Review queue', 'Account']);
   });
   it('an admin sees administration too', async () => {
-    expect(await navLabels('admin@bandcone.test')).toEqual(['Catalogue', 'Cone study', 'Compare', 'Submit', 'Review queue', 'Admin', 'Account']);
+    expect(await navLabels('admin@bandcone.test')).toEqual(['Catalogue', 'Cone study', 'Compare', 'Optics', 'Submit', 'Review queue', 'Admin', 'Account']);
   });
   it('a contributor sent to an admin page is redirected to sign-in', async () => {
     const context = await browser.newContext();
