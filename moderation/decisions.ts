@@ -4,6 +4,7 @@ import { audit } from '@/lib/audit';
 import { conflict, forbidden, notFound } from '@/lib/http/errors';
 import { hasRole, type Actor } from '@/lib/auth/actor';
 import { notifyContributorOfDecision, notifyOfNote } from './notify';
+import { storeDerivedForSubmission } from '@/lib/catalogue/derived-store';
 
 export type Decision = 'verify' | 'request_changes' | 'reject';
 
@@ -26,6 +27,8 @@ export async function decide(moderator: Pick<Actor, 'id' | 'role'>, submissionId
     await submission.update({ status, decidedAt: now }, { transaction });
     const current = { submissionId, revision: submission.revision, status: 'submitted' };
     await Curve.update({ status, ...(decision === 'verify' ? { verifiedAt: now } : {}) }, { where: current, transaction });
+    // Fitness grid and sparkline in the same transaction: a verified curve is never missing from fitness searches.
+    if (decision === 'verify') await storeDerivedForSubmission(submissionId, submission.revision, transaction);
     if (decision === 'verify' && submission.replacesCurveId) {
       // The corrected curve replaces the old one in search; the old one stays readable by its id.
       await Curve.update({ status: 'superseded' }, { where: { id: submission.replacesCurveId, status: 'verified' }, transaction });

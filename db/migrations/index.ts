@@ -1,5 +1,6 @@
 import type { MigrationContext } from '../migrator';
 import foundation from './0001_foundation';
+import catalogue from './0002_catalogue';
 
 export type Migration = {
   name: string;
@@ -8,4 +9,4 @@ export type Migration = {
 };
 
 // Append new migrations here, in order; never edit one that has shipped.
-export const migrations: Migration[] = [foundation];
+export const migrations: Migration[] = [foundation, catalogue];

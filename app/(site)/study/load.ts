@@ -1,7 +1,7 @@
 import { Op } from 'sequelize';
 import { db } from '@/db/models';
 import type { Actor } from '@/lib/auth/actor';
-import { loadVisibleCurve, visibilityWhere } from '@/lib/catalogue/points';
+import { loadReadableCurve, readableWhere } from '@/lib/catalogue/points';
 import type { StudyCurve } from '@/lib/study/types';
 
 /**
@@ -15,7 +15,7 @@ export async function loadStudyCurves(actor: Actor | null, ids: number[]): Promi
   for (const id of ids) {
     let c;
     try {
-      c = await loadVisibleCurve(actor, id);
+      c = await loadReadableCurve(actor, id);
     } catch {
       missing.push(id);
       continue;
@@ -24,7 +24,7 @@ export async function loadStudyCurves(actor: Actor | null, ids: number[]): Promi
     if (c.setKey) {
       const { Curve } = db();
       const members = await Curve.findAll({
-        where: { [Op.and]: [{ setKey: c.setKey }, { cwlNm: { [Op.ne]: null } }, visibilityWhere(actor)] },
+        where: { [Op.and]: [{ setKey: c.setKey }, { cwlNm: { [Op.ne]: null } }, readableWhere(actor)] },
         attributes: ['id', 'aoiDeg', 'cwlNm'],
         order: [['aoiDeg', 'ASC'], ['id', 'ASC']],
       });

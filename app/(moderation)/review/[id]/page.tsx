@@ -50,7 +50,8 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
         </div>
         <div className="space-y-6">
           {s.status !== 'submitted' ? (
-            <p className="rounded-card border border-rule bg-panel p-4 text-sm" role="status">
+            // Same test id as the form's confirmation: after a decision the refreshed page shows this instead.
+            <p className="rounded-card border border-rule bg-panel p-4 text-sm" role="status" data-testid="decision-done">
               Already decided: <StatusBadge status={s.status} />. Nothing to do here until a revision comes back.
             </p>
           ) : own ? (

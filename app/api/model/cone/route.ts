@@ -3,14 +3,14 @@ import { withErrors, readJson } from '@/lib/http/errors';
 import { coneRequestSchema } from '@/lib/schemas/model';
 import { runConeModel } from '@/lib/engine/cone-study';
 import { currentActor } from '@/lib/auth/actor';
-import { loadVisibleCurve } from '@/lib/catalogue/points';
+import { loadReadableCurve } from '@/lib/catalogue/points';
 
 export const POST = withErrors(async (req: Request) => {
   const body = coneRequestSchema.parse(await readJson(req));
   let points = body.points;
   let measuredAoiDeg = body.measuredAoiDeg;
   if (body.curveId !== undefined) {
-    const curve = await loadVisibleCurve(await currentActor(req), body.curveId);
+    const curve = await loadReadableCurve(await currentActor(req), body.curveId);
     points = { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission };
     // A stored curve knows the angle it was measured at.
     measuredAoiDeg ??= curve.aoiDeg;

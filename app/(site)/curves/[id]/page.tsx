@@ -1,0 +1,285 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { headers } from 'next/headers';
+import { currentActor } from '@/lib/auth/actor';
+import { HttpError } from '@/lib/http/errors';
+import { getCurveDetail, parseCurveId, publicOrigin, type CurveDetail } from '@/lib/catalogue/detail';
+import { loadReadableCurve } from '@/lib/catalogue/points';
+import { opticChoices } from '@/lib/catalogue/optic-choices';
+import { DEFAULT_N_EFF } from '@/lib/catalogue/fitness-grid';
+import { StatusBadge } from '@/components/review/status-badge';
+import { StripPlot } from '@/components/charts/strip-plot';
+import { formatDeg, formatFNumber, formatNm, formatRatio, formatTransmission, fixed } from '@/components/charts/format';
+import { CurveChart } from '@/components/catalogue/curve-chart';
+import { AddToCompare, CopyText } from '@/components/catalogue/curve-actions';
+import { SolarCaution } from '@/components/catalogue/solar-caution';
+import { INSTRUMENT_NAMES } from '@/components/catalogue/labels';
+
+type Props = { params: Promise<{ id: string }> };
+
+async function load(raw: string) {
+  const actor = await currentActor().catch(() => null);
+  try {
+    const id = parseCurveId(raw);
+    const h = await headers();
+    const origin = publicOrigin(`${h.get('x-forwarded-proto') ?? 'http'}://${h.get('host') ?? 'localhost'}`);
+    const [detail, curve] = await Promise.all([getCurveDetail(actor, id, origin), loadReadableCurve(actor, id)]);
+    return { actor, detail, points: { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission } };
+  } catch (err) {
+    if (err instanceof HttpError && err.status === 404) notFound();
+    throw err;
+  }
+}
+
+export async function generateMetadata({ params }: Props): Promise<Metadata> {
+  const { id } = await params;
+  return { title: `Curve ${id}` };
+}
+
+function Row({ label, children, testId }: { label: string; children: React.ReactNode; testId?: string }) {
+  return (
+    <div className="flex justify-between gap-4 border-b border-rule/60 py-1.5 last:border-b-0" data-testid={testId}>
+      <dt className="text-muted">{label}</dt>
+      <dd className="figures text-right">{children}</dd>
+    </div>
+  );
+}
+
+function Card({ title, children, className = '' }: { title: string; children: React.ReactNode; className?: string }) {
+  return (
+    <section className={`rounded-card border border-rule bg-panel p-4 ${className}`} aria-label={title}>
+      <h2 className="mb-2 text-xs font-semibold uppercase tracking-wider text-muted">{title}</h2>
+      {children}
+    </section>
+  );
+}
+
+const LICENCE_LINKS: Record<string, string> = {
+  'CC-BY-4.0': 'https://creativecommons.org/licenses/by/4.0/',
+  'CC0-1.0': 'https://creativecommons.org/publicdomain/zero/1.0/',
+};
+
+function methodRows(d: CurveDetail) {
+  const m = d.method as Record<string, string | number | undefined>;
+  const rows: [string, string][] = [
+    ['Instrument', INSTRUMENT_NAMES[d.instrument] ?? d.instrument],
+    ['Resolution or step', m.resolutionNm !== undefined ? formatNm(Number(m.resolutionNm), 2) : '—'],
+    ['Beam', m.beam === 'converging' ? `converging at ${formatFNumber(Number(m.beamFNumber))}` : String(m.beam ?? '—')],
+    ['Angle of incidence', formatDeg(d.aoiDeg)],
+    ['Temperature', m.temperatureC !== undefined ? `${fixed(Number(m.temperatureC), 1)} °C` : '—'],
+    ['Polarisation', m.polarization ? String(m.polarization) : '—'],
+    ['Measured on', d.measuredOn ?? '—'],
+    ['Where', d.lab ?? '—'],
+  ];
+  return rows;
+}
+
+export default async function CurvePage({ params }: Props) {
+  const { id } = await params;
+  const { actor, detail: d, points } = await load(id);
+  const optics = await opticChoices(actor);
+  const spread = d.unitSpread;
+  const solar = d.lines.some((l) => l.id === 'Ha');
+  const nominal = d.nominal.cwlNm && d.nominal.fwhmNm ? { cwlNm: d.nominal.cwlNm, fwhmNm: d.nominal.fwhmNm } : null;
+  const contributorHref = `/curves?contributor=${d.contributor.id}`;
+
+  return (
+    <article className="space-y-5" data-testid="curve-page">
+      <header className="space-y-2">
+        <p className="text-sm text-muted">
+          <Link href="/curves" className="underline-offset-4 hover:underline">
+            Catalogue
+          </Link>{' '}
+          / curve {d.id}
+        </p>
+        <div className="flex flex-wrap items-center gap-3">
+          <h1 className="text-2xl font-semibold tracking-tight">{d.title}</h1>
+          <StatusBadge status={d.status} />
+          <span className="text-sm text-muted">revision {d.revision}</span>
+        </div>
+        <p className="text-sm text-muted">
+          {[d.maker, d.lines.map((l) => (/\d/.test(l.name) ? `${l.name} nm` : `${l.name} ${l.wavelengthNm.toFixed(2)} nm`)).join(', '), d.sizeMm].filter(Boolean).join(' · ')}
+        </p>
+        <div className="flex flex-wrap items-center gap-3 pt-1">
+          <Link href={d.links.study} className="rounded-card bg-accent px-3 py-1.5 text-sm text-accent-ink" data-testid="run-study">
+            Run a cone study
+          </Link>
+          <AddToCompare id={d.id} />
+          <span className="text-sm">
+            <span className="text-muted">Download:</span>{' '}
+            <a href={d.links.csv} className="text-accent underline-offset-4 hover:underline" data-testid="download-csv" download>
+              CSV
+            </a>{' '}
+            ·{' '}
+            <a href={d.links.json} className="text-accent underline-offset-4 hover:underline" download>
+              JSON
+            </a>
+          </span>
+        </div>
+      </header>
+
+      {solar ? <SolarCaution /> : null}
+
+      <CurveChart
+        curveId={d.id}
+        title={d.title}
+        points={points}
+        lineIds={d.lines.map((l) => l.id)}
+        nominal={nominal}
+        optics={optics}
+        defaultNEff={Number((d.derived.nEff ?? DEFAULT_N_EFF).toFixed(3))}
+        fittedNEff={d.derived.nEff !== null}
+      />
+
+      <div className="grid gap-4 md:grid-cols-2 xl:grid-cols-3">
+        <Card title="Derived numbers">
+          <dl className="text-sm">
+            <Row label="Peak T" testId="derived-peak">{formatTransmission(d.derived.peakT)}</Row>
+            <Row label="CWL (half-maximum centre)" testId="derived-cwl">{formatNm(d.derived.cwlNm)}</Row>
+            <Row label="FWHM" testId="derived-fwhm">{formatNm(d.derived.fwhmNm)}</Row>
+            <Row label="Mean in-band T">{formatTransmission(d.derived.meanInBandT)}</Row>
+            <Row label="Effective bandwidth">{formatNm(d.derived.effectiveBandwidthNm)}</Row>
+            <Row label="Blocking (outside CWL ± 2·FWHM)">{d.derived.blockingOd === null ? '—' : `OD ${fixed(d.derived.blockingOd, 1)}`}</Row>
+            <Row label="Effective index">{d.derived.nEff === null ? 'not measured (single angle)' : `${formatRatio(d.derived.nEff)} (fitted)`}</Row>
+            <Row label="Samples">{d.derived.pointCount.toLocaleString('en-US')}</Row>
+          </dl>
+          <h3 className="mt-3 text-xs font-semibold text-muted">Transmission at catalogued lines</h3>
+          <dl className="text-sm">
+            {d.derived.lineTransmission
+              .filter((l) => l.transmission >= 0.01 || d.lines.some((x) => x.id === l.id))
+              .map((l) => (
+                <Row key={l.id} label={/\d/.test(l.name) ? `${l.name} nm` : `${l.name} ${l.wavelengthNm.toFixed(2)} nm`}>
+                  {formatTransmission(l.transmission)}
+                </Row>
+              ))}
+          </dl>
+          {d.nominal.cwlNm ? (
+            <p className="mt-2 text-xs text-muted">
+              Maker&apos;s nominal: {formatNm(d.nominal.cwlNm)} CWL, {formatNm(d.nominal.fwhmNm)} FWHM
+              {d.nominal.preShiftNm ? `, declared pre-shift ${formatNm(d.nominal.preShiftNm)}` : ''}.
+            </p>
+          ) : null}
+        </Card>
+
+        <Card title="Test method">
+          <dl className="text-sm">
+            {methodRows(d).map(([k, v]) => (
+              <Row key={k} label={k}>
+                {v}
+              </Row>
+            ))}
+          </dl>
+          {d.set ? (
+            <div className="mt-3 text-sm">
+              <h3 className="text-xs font-semibold text-muted">Measured at several angles (one unit)</h3>
+              <ul className="mt-1 flex flex-wrap gap-2">
+                {d.set.curves.map((c) => (
+                  <li key={c.id}>
+                    {c.id === d.id ? (
+                      <span className="figures rounded-full border border-accent px-2 py-0.5">{formatDeg(c.aoiDeg, 0)}</span>
+                    ) : (
+                      <Link href={`/curves/${c.id}`} className="figures rounded-full border border-rule px-2 py-0.5 hover:border-accent">
+                        {formatDeg(c.aoiDeg, 0)}
+                      </Link>
+                    )}
+                  </li>
+                ))}
+              </ul>
+            </div>
+          ) : null}
+          {d.notes ? <p className="mt-3 whitespace-pre-line text-sm text-muted">{d.notes}</p> : null}
+        </Card>
+
+        <Card title="Provenance">
+          <dl className="text-sm">
+            <Row label="Contributor">
+              <Link href={contributorHref} className="text-accent underline-offset-4 hover:underline">
+                {d.contributor.name ?? 'a contributor'}
+              </Link>
+            </Row>
+            <Row label="Lab">{d.lab ?? '—'}</Row>
+            <Row label="Measured on">{d.measuredOn ?? '—'}</Row>
+            <Row label="Verified">{d.verifiedAt ? d.verifiedAt.slice(0, 10) : 'not yet'}</Row>
+            <Row label="Licence">
+              <a href={LICENCE_LINKS[d.licence]} className="text-accent underline-offset-4 hover:underline" rel="license">
+                {d.licence}
+              </a>
+            </Row>
+            {d.serial ? <Row label="Unit serial">{d.serial}</Row> : null}
+          </dl>
+          {d.revisions.length > 1 ? (
+            <div className="mt-3 text-sm">
+              <h3 className="text-xs font-semibold text-muted">Revisions</h3>
+              <ol className="mt-1 space-y-0.5">
+                {d.revisions.map((r) => (
+                  <li key={r.id} className="flex items-center gap-2">
+                    {r.current ? <strong>revision {r.revision}</strong> : <Link href={`/curves/${r.id}`} className="text-accent underline-offset-4 hover:underline">revision {r.revision}</Link>}
+                    <StatusBadge status={r.status} />
+                    {r.verifiedAt ? <span className="figures text-xs text-muted">{r.verifiedAt.slice(0, 10)}</span> : null}
+                  </li>
+                ))}
+              </ol>
+            </div>
+          ) : null}
+          <div className="mt-3 text-sm">
+            <h3 className="text-xs font-semibold text-muted">Review</h3>
+            {d.reviews.length ? (
+              <ul className="mt-1 space-y-1.5" data-testid="reviews">
+                {d.reviews.map((r, i) => (
+                  <li key={i}>
+                    <span className="figures text-xs text-muted">{r.at.slice(0, 10)}</span> {r.kind === 'verify' ? 'Verified' : r.kind.replace('_', ' ')}
+                    {r.by ? ` by ${r.by}` : ''}
+                    {r.note ? <>: <q>{r.note}</q></> : null}
+                  </li>
+                ))}
+              </ul>
+            ) : (
+              <p className="mt-1 text-muted">No public review notes.</p>
+            )}
+          </div>
+        </Card>
+
+        <Card title={`Unit spread: ${spread.count} unit${spread.count === 1 ? '' : 's'} labelled “${d.label}”`} className="md:col-span-2 xl:col-span-2">
+          {spread.count >= 2 ? (
+            <div className="grid gap-4 sm:grid-cols-2" data-testid="unit-spread">
+              {(['cwl', 'fwhm'] as const).map((k) => {
+                const s = spread[k];
+                const values = spread.curves.map((c) => (k === 'cwl' ? c.cwlNm : c.fwhmNm)).filter((v): v is number => v !== null);
+                return (
+                  <div key={k} className="space-y-1 text-sm">
+                    <h3 className="font-medium">{k === 'cwl' ? 'CWL' : 'FWHM'}</h3>
+                    <p className="figures">
+                      mean {formatNm(s.mean)}, sd {formatNm(s.sd)}, range {formatNm(s.min)} – {formatNm(s.max)}
+                    </p>
+                    <StripPlot
+                      values={values}
+                      labels={spread.curves.filter((c) => (k === 'cwl' ? c.cwlNm : c.fwhmNm) !== null).map((c) => `curve ${c.id}`)}
+                      nominal={(k === 'cwl' ? d.nominal.cwlNm : d.nominal.fwhmNm) ?? undefined}
+                      label={`${k === 'cwl' ? 'CWL' : 'FWHM'} of the ${values.length} units sharing this label`}
+                      width={300}
+                    />
+                  </div>
+                );
+              })}
+              <p className="text-xs text-muted sm:col-span-2">
+                Verified curves measured at normal incidence only (an off-normal measurement is shifted by its angle). The hollow tick is the maker&apos;s nominal value.
+              </p>
+            </div>
+          ) : (
+            <p className="text-sm text-muted">This is the only verified normal-incidence curve with this label, so there is no spread to show yet.</p>
+          )}
+        </Card>
+
+        <Card title="Cite this curve">
+          <p className="text-sm" data-testid="citation">
+            {d.citation}
+          </p>
+          <div className="mt-2">
+            <CopyText text={d.citation} label="Copy citation" />
+          </div>
+        </Card>
+      </div>
+    </article>
+  );
+}

@@ -1,0 +1,21 @@
+import { withErrors } from '@/lib/http/errors';
+import { currentActor } from '@/lib/auth/actor';
+import { csvMetadata, getCurveDetail, parseCurveId, publicOrigin } from '@/lib/catalogue/detail';
+import { loadReadableCurve } from '@/lib/catalogue/points';
+import { writeCurveCsv } from '@/lib/engine/csv';
+
+type Ctx = { params: Promise<{ id: string }> };
+
+// Our own CSV: `#` metadata lines, then wavelength_nm,transmission; the upload reader reads it back unchanged.
+export const GET = withErrors(async (req: Request, ctx: Ctx) => {
+  const id = parseCurveId((await ctx.params).id);
+  const actor = await currentActor(req);
+  const [detail, curve] = await Promise.all([getCurveDetail(actor, id, publicOrigin(new URL(req.url).origin)), loadReadableCurve(actor, id)]);
+  const csv = writeCurveCsv(csvMetadata(detail), { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission });
+  return new Response(csv, {
+    headers: {
+      'content-type': 'text/csv; charset=utf-8',
+      'content-disposition': `attachment; filename="bandcone-curve-${id}.csv"`,
+    },
+  });
+});

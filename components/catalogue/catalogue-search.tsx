@@ -1,0 +1,265 @@
+'use client';
+
+import { useCallback, useMemo, useState } from 'react';
+import { usePathname, useRouter, useSearchParams } from 'next/navigation';
+import useSWR from 'swr';
+import { formatFNumber, formatRatio, formatDeg } from '@/components/charts/format';
+import { DEFAULT_DIR, SORTS, type Sort } from '@/lib/catalogue/search-params';
+import { FilterPanel } from './filter-panel';
+import { ResultsTable } from './results-table';
+import { EmptyState } from './empty-state';
+import { CompareTray } from './compare-tray';
+import { SolarCaution, ModelCaution } from './solar-caution';
+import { SORT_NAMES, lineName, INSTRUMENT_NAMES } from './labels';
+import type { OpticChoice, Query, SearchResponse } from './types';
+
+type Patch = Record<string, string | undefined>;
+
+class FetchError extends Error {}
+
+async function fetcher(url: string): Promise<SearchResponse> {
+  const res = await fetch(url, { headers: { accept: 'application/json' } });
+  const body = await res.json().catch(() => null);
+  if (!res.ok) throw new FetchError(body?.error ?? `The search failed (${res.status}).`);
+  return body as SearchResponse;
+}
+
+function toQuery(sp: URLSearchParams): Query {
+  const q: Query = {};
+  sp.forEach((v, k) => {
+    if (v !== '') q[k] = v;
+  });
+  return q;
+}
+
+function qs(q: Query): string {
+  const u = new URLSearchParams();
+  for (const [k, v] of Object.entries(q).sort(([a], [b]) => a.localeCompare(b))) if (v !== '' && v !== undefined) u.set(k, v);
+  return u.toString();
+}
+
+const FILTER_NAMES: Record<string, (v: string) => string> = {
+  q: (v) => `“${v}”`,
+  line: (v) => lineName(v),
+  cwlMin: (v) => `CWL ≥ ${v} nm`,
+  cwlMax: (v) => `CWL ≤ ${v} nm`,
+  fwhmMin: (v) => `FWHM ≥ ${v} nm`,
+  fwhmMax: (v) => `FWHM ≤ ${v} nm`,
+  peakMin: (v) => `peak ≥ ${Number((Number(v) * 100).toPrecision(4))} %`,
+  method: (v) => INSTRUMENT_NAMES[v] ?? v,
+  aoiMin: (v) => `AOI ≥ ${v}°`,
+  aoiMax: (v) => `AOI ≤ ${v}°`,
+  status: (v) => `status: ${v.replace('_', ' ')}`,
+  contributor: () => 'one contributor',
+  minThroughput: (v) => `keeps ≥ ${Number((Number(v) * 100).toPrecision(4))} % of the line`,
+};
+
+export function CatalogueSearch(props: {
+  initial: SearchResponse | null;
+  initialQuery: string;
+  initialError: string | null;
+  optics: OpticChoice[];
+  isModerator: boolean;
+  signedIn: boolean;
+}) {
+  const router = useRouter();
+  const pathname = usePathname();
+  const sp = useSearchParams();
+  const query = useMemo(() => toQuery(new URLSearchParams(sp.toString())), [sp]);
+  const key = qs(query);
+  const [text, setText] = useState(query.q ?? '');
+  const [lastQ, setLastQ] = useState(query.q ?? '');
+  const [filtersOpen, setFiltersOpen] = useState(false);
+  if ((query.q ?? '') !== lastQ) {
+    // the URL changed underneath (back button, a link): show its words in the box
+    setLastQ(query.q ?? '');
+    setText(query.q ?? '');
+  }
+
+  const { data, error, isLoading, isValidating } = useSWR<SearchResponse, Error>(`/api/curves?${key}`, fetcher, {
+    keepPreviousData: true,
+    fallbackData: key === props.initialQuery && props.initial ? props.initial : undefined,
+    revalidateOnFocus: false,
+  });
+  const shownError = error?.message ?? (key === props.initialQuery ? props.initialError : null);
+
+  const hrefFor = useCallback(
+    (patch: Patch) => {
+      const next: Query = { ...query };
+      for (const [k, v] of Object.entries(patch)) {
+        if (v === undefined || v === '') delete next[k];
+        else next[k] = v;
+      }
+      // any change of what is asked starts again at page 1
+      if (!('page' in patch)) delete next.page;
+      const s = qs(next);
+      return s ? `${pathname}?${s}` : pathname;
+    },
+    [query, pathname],
+  );
+  const change = useCallback((patch: Patch) => router.push(hrefFor(patch), { scroll: false }), [router, hrefFor]);
+
+  const sort = (data?.sort ?? query.sort ?? (query.q ? 'relevance' : 'newest')) as Sort;
+  const dir = data?.dir ?? query.dir ?? DEFAULT_DIR[sort];
+  const onSort = (s: Sort) => {
+    if (s === sort) change({ sort: s, dir: dir === 'asc' ? 'desc' : 'asc' });
+    else change({ sort: s, dir: undefined });
+  };
+
+  const total = data?.total ?? 0;
+  const page = data?.page ?? 1;
+  const pageSize = data?.pageSize ?? 20;
+  const pages = Math.max(1, Math.ceil(total / pageSize));
+  const fitness = !!query.fNumber;
+  const chips = Object.entries(query).filter(([k]) => k in FILTER_NAMES);
+  const showsHa = query.line === 'Ha' || (data?.items ?? []).some((i) => i.lines.includes('Ha'));
+  const exportQuery = qs(Object.fromEntries(Object.entries(query).filter(([k]) => !['page', 'pageSize', 'status'].includes(k))));
+
+  return (
+    <div className="space-y-4">
+      <header className="space-y-3">
+        <h1 className="text-2xl font-semibold tracking-tight">Catalogue</h1>
+        <form
+          role="search"
+          className="flex gap-2"
+          onSubmit={(e) => {
+            e.preventDefault();
+            change({ q: text.trim() || undefined, sort: query.sort === 'relevance' && !text.trim() ? undefined : query.sort });
+          }}
+        >
+          <label htmlFor="catalogue-q" className="sr-only">
+            Search words
+          </label>
+          <input
+            id="catalogue-q"
+            name="q"
+            type="search"
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+            placeholder="Words: H-alpha 3nm, a maker, a lab, a coating…"
+            className="min-w-0 flex-1 rounded-card border border-rule bg-panel px-3 py-2"
+            autoComplete="off"
+          />
+          <button className="rounded-card bg-accent px-4 py-2 text-accent-ink">Search</button>
+        </form>
+        {chips.length > 0 || fitness ? (
+          <ul className="flex flex-wrap gap-2 text-xs" aria-label="Active filters">
+            {chips.map(([k, v]) => (
+              <li key={k}>
+                <button type="button" onClick={() => change({ [k]: undefined })} className="rounded-full border border-rule bg-panel px-2 py-0.5 hover:border-accent" aria-label={`Remove filter ${FILTER_NAMES[k](v)}`}>
+                  {FILTER_NAMES[k](v)} <span aria-hidden="true">×</span>
+                </button>
+              </li>
+            ))}
+            {fitness ? (
+              <li>
+                <button
+                  type="button"
+                  onClick={() => change({ fNumber: undefined, obstruction: undefined, nEff: undefined, fieldAngleDeg: undefined, minThroughput: undefined, sort: sort === 'throughput' ? undefined : query.sort })}
+                  className="rounded-full border border-accent/60 bg-accent/10 px-2 py-0.5"
+                >
+                  optic {formatFNumber(Number(query.fNumber))}, obstruction {formatRatio(Number(query.obstruction ?? 0))}
+                  {query.fieldAngleDeg ? `, ${formatDeg(Number(query.fieldAngleDeg))} field` : ''}
+                  {query.nEff ? `, n_eff ${query.nEff}` : ''} <span aria-hidden="true">×</span>
+                </button>
+              </li>
+            ) : null}
+            <li>
+              <button type="button" onClick={() => router.push(pathname)} className="px-1 py-0.5 text-muted underline-offset-4 hover:underline">
+                Clear all
+              </button>
+            </li>
+          </ul>
+        ) : null}
+      </header>
+
+      <div className="grid gap-6 lg:grid-cols-[17rem_minmax(0,1fr)]">
+        <aside aria-label="Filters" className="lg:sticky lg:top-4 lg:self-start">
+          <button
+            type="button"
+            onClick={() => setFiltersOpen((o) => !o)}
+            aria-expanded={filtersOpen}
+            aria-controls="catalogue-filters"
+            className="flex w-full items-center justify-between rounded-card border border-rule bg-panel px-3 py-2 text-sm font-medium lg:hidden"
+          >
+            Filters{chips.length || fitness ? ` (${chips.length + (fitness ? 1 : 0)} set)` : ''}
+            <span aria-hidden="true">{filtersOpen ? '▴' : '▾'}</span>
+          </button>
+          <div id="catalogue-filters" className={`${filtersOpen ? 'block' : 'hidden'} mt-2 rounded-card border border-rule bg-panel p-3 lg:mt-0 lg:block lg:max-h-[calc(100vh-2rem)] lg:overflow-auto lg:border-0 lg:bg-transparent lg:p-0 lg:pr-2`}>
+            <FilterPanel query={query} facets={data?.facets} optics={props.optics} isModerator={props.isModerator} signedIn={props.signedIn} onChange={change} />
+          </div>
+        </aside>
+
+        <section aria-label="Results" className="min-w-0 space-y-3">
+          <div className="flex flex-wrap items-center gap-x-4 gap-y-2 text-sm">
+            <p aria-live="polite" data-testid="result-count">
+              {isLoading && !data ? 'Searching…' : <><strong className="figures">{total.toLocaleString('en-US')}</strong> curve{total === 1 ? '' : 's'}</>}
+              {isValidating && data ? <span className="ml-2 text-muted">updating…</span> : null}
+            </p>
+            <label className="flex items-center gap-2">
+              <span className="text-muted">Sort</span>
+              <select value={sort} onChange={(e) => change({ sort: e.target.value, dir: undefined })} className="rounded-card border border-rule bg-panel px-2 py-1" aria-label="Sort by">
+                {SORTS.filter((s) => (s === 'throughput' ? fitness : s === 'relevance' ? !!query.q : true)).map((s) => (
+                  <option key={s} value={s}>
+                    {SORT_NAMES[s]}
+                  </option>
+                ))}
+              </select>
+            </label>
+            <span className="ml-auto flex gap-3 text-sm">
+              <span className="text-muted">Download these verified curves:</span>
+              <a href={`/api/curves/export.csv${exportQuery ? `?${exportQuery}` : ''}`} className="text-accent underline-offset-4 hover:underline" data-testid="export-csv">CSV</a>
+              <a href={`/api/curves/export.json${exportQuery ? `?${exportQuery}` : ''}`} className="text-accent underline-offset-4 hover:underline">JSON</a>
+            </span>
+          </div>
+
+          {shownError ? (
+            <p role="alert" className="rounded-card border border-bad/50 bg-bad/10 px-3 py-2 text-sm text-bad">
+              {shownError}
+            </p>
+          ) : null}
+
+          {data && data.items.length === 0 ? (
+            <EmptyState query={query} data={data} onChange={change} hrefFor={hrefFor} />
+          ) : data ? (
+            <>
+              <ResultsTable items={data.items} sort={sort} dir={dir} fitness={fitness} targetLine={query.line} onSort={onSort} busy={isValidating} />
+              <nav aria-label="Pages" className="flex flex-wrap items-center gap-3 text-sm">
+                <span className="text-muted">
+                  Rows {((page - 1) * pageSize + 1).toLocaleString('en-US')}–{Math.min(total, page * pageSize).toLocaleString('en-US')} of {total.toLocaleString('en-US')}
+                </span>
+                <button type="button" disabled={page <= 1} onClick={() => change({ page: String(page - 1) })} className="rounded-card border border-rule px-2 py-1 disabled:opacity-40">
+                  Previous
+                </button>
+                <span className="figures">
+                  page {page} of {pages}
+                </span>
+                <button type="button" disabled={page >= pages} onClick={() => change({ page: String(page + 1) })} className="rounded-card border border-rule px-2 py-1 disabled:opacity-40" data-testid="next-page">
+                  Next
+                </button>
+                <label className="ml-auto flex items-center gap-2">
+                  <span className="text-muted">Per page</span>
+                  <select value={String(pageSize)} onChange={(e) => change({ pageSize: e.target.value })} className="rounded-card border border-rule bg-panel px-2 py-1">
+                    {[20, 50, 100].map((n) => (
+                      <option key={n}>{n}</option>
+                    ))}
+                  </select>
+                </label>
+              </nav>
+            </>
+          ) : null}
+
+          {fitness ? (
+            <p className="text-xs text-muted">
+              Line throughput and the speed-equivalent f-number are computed exactly for the rows shown; the filter and the throughput sort read a stored grid
+              (see the catalogue notes for its measured accuracy).
+            </p>
+          ) : null}
+          {fitness ? <ModelCaution /> : null}
+          {showsHa ? <SolarCaution compact /> : null}
+        </section>
+      </div>
+      <CompareTray />
+    </div>
+  );
+}

@@ -1,0 +1,424 @@
+/**
+ * GET /api/curves: full text, parametric filters, facet counts and the fitness
+ * filter, answered by PostgreSQL in two queries (one page, one for the total and
+ * the facets), then the page's throughputs recomputed exactly by the engine.
+ */
+
+import { QueryTypes } from 'sequelize';
+import { db } from '@/db/models';
+import { hasRole, type Actor } from '@/lib/auth/actor';
+import { forbidden } from '@/lib/http/errors';
+import { lineThroughput } from '@/lib/engine/cone';
+import { prepareCurve } from '@/lib/engine/curve';
+import { findLine } from '@/lib/engine/lines';
+import { buildPupil, type Pupil } from '@/lib/engine/pupil';
+import { defaultNEff, fineSliceSql, fitnessSql, fitnessWeights, frameSql, offNormalThroughput, opticOf, type FitnessQuery, type Weights } from './fitness-grid';
+import { DEFAULT_DIR, DEFAULT_PAGE_SIZE, FWHM_BUCKETS, bucketKey, hasFitness, type SearchParams, type Sort } from './search-params';
+import { and, MARK_END, MARK_START, snippetHtml, SqlParts } from './sql';
+import { sparklineOf } from './sparkline';
+import { cachedCounts } from './count-cache';
+
+export interface SearchItem {
+  id: number;
+  title: string;
+  label: string;
+  maker: string | null;
+  lines: string[];
+  cwlNm: number | null;
+  fwhmNm: number | null;
+  peakT: number;
+  status: string;
+  instrument: string;
+  aoiDeg: number;
+  verifiedAt: string | null;
+  throughput?: number;
+  speedEquivalentFNumber?: number | null;
+  snippet?: string;
+  sparkline: { wavelengthNm: number[]; transmission: number[] };
+}
+
+export interface FacetCount {
+  key: string;
+  count: number;
+}
+
+export interface SearchResult {
+  items: SearchItem[];
+  total: number;
+  page: number;
+  pageSize: number;
+  sort: Sort;
+  dir: 'asc' | 'desc';
+  facets: { line: FacetCount[]; method: FacetCount[]; fwhm: FacetCount[] };
+  fitness?: { lineId: string | null; fNumber: number; obstruction: number; nEff: number | null; fieldAngleDeg: number; gridLevel: number };
+}
+
+/** Arrays come back as text and are split here: several times quicker than the driver's array parser for whole curves. */
+function numbers(text: string): number[] {
+  return text.split(',').map(Number);
+}
+
+/** Relevance ranks at most this many matches, the newest (see buildSearchSql). */
+export const RANK_CANDIDATES = 2000;
+
+/** Exact τ computed per curve when the grid cannot answer (off-normal curves under a named n_eff; curves without grid rows yet). */
+const MAX_EXACT = 5000;
+
+function visibility(actor: Actor | null, p: SearchParams, s: SqlParts): string {
+  const status = p.status;
+  if (hasRole(actor, 'moderator')) {
+    if (!status) return `c.status <> 'superseded'`;
+    return status === 'any' ? 'true' : `c.status = ${s.param(status)}`;
+  }
+  if (!actor) {
+    if (status && status !== 'verified') throw forbidden('Only moderators filter by status; the public catalogue holds verified curves.');
+    return `c.status = 'verified'`;
+  }
+  const me = s.param(actor.id, '::uuid');
+  if (!status) return `c.status = 'verified' OR (c.contributor_id = ${me} AND c.status <> 'superseded')`;
+  if (status === 'verified') return `c.status = 'verified'`;
+  if (status === 'any') return `c.status = 'verified' OR c.contributor_id = ${me}`;
+  return `c.status = ${s.param(status)} AND c.contributor_id = ${me}`;
+}
+
+interface Built {
+  s: SqlParts;
+  /** Every filter except line, method and FWHM, which the facets leave out in turn. */
+  common: string[];
+  line: string | null;
+  method: string | null;
+  fwhm: string | null;
+  joins: string;
+  tau: string | null;
+  rank: string | null;
+  query: string | null;
+}
+
+/** What is decided once per search, before any SQL is written. */
+export interface Plan {
+  actor: Actor | null;
+  p: SearchParams;
+  weights?: Weights;
+  pupil?: Pupil;
+  exact?: { ids: number[]; taus: number[] };
+}
+
+/**
+ * The clauses for one statement. Each statement gets its own SqlParts because
+ * PostgreSQL refuses a bind parameter that the statement never uses.
+ */
+function clauses(plan: Plan, s: SqlParts, withFitness = true, omit: ('line' | 'method' | 'fwhm')[] = []): Built {
+  const { p, actor } = plan;
+  const common: string[] = [visibility(actor, p, s)];
+  let query: string | null = null;
+  let rank: string | null = null;
+  if (p.q) {
+    query = `websearch_to_tsquery('english', ${s.param(p.q)})`;
+    common.push(`c.search @@ ${query}`);
+    rank = `ts_rank_cd(c.search, ${query})`;
+  }
+  if (p.cwlMin !== undefined) common.push(`c.cwl_nm >= ${s.param(p.cwlMin)}`);
+  if (p.cwlMax !== undefined) common.push(`c.cwl_nm <= ${s.param(p.cwlMax)}`);
+  if (p.peakMin !== undefined) common.push(`c.peak_t >= ${s.param(p.peakMin)}`);
+  if (p.aoiMin !== undefined) common.push(`c.aoi_deg >= ${s.param(p.aoiMin)}`);
+  if (p.aoiMax !== undefined) common.push(`c.aoi_deg <= ${s.param(p.aoiMax)}`);
+  if (p.contributor) common.push(`c.contributor_id = ${s.param(p.contributor, '::uuid')}`);
+  // = ANY reads the covering index far faster than @> (which would reach the GIN on lines)
+  const line = p.line && !omit.includes('line') ? `${s.param(p.line)}::text = ANY(c.lines)` : null;
+  const method = p.method && !omit.includes('method') ? `c.instrument = ${s.param(p.method)}` : null;
+  const fwhmParts = omit.includes('fwhm')
+    ? []
+    : ([
+        p.fwhmMin !== undefined ? `c.fwhm_nm >= ${s.param(p.fwhmMin)}` : null,
+        p.fwhmMax !== undefined ? `c.fwhm_nm <= ${s.param(p.fwhmMax)}` : null,
+      ].filter(Boolean) as string[]);
+  const fwhm = fwhmParts.length ? and(fwhmParts) : null;
+
+  let joins = '';
+  let tau: string | null = null;
+  if (withFitness && plan.weights) {
+    // τ for every stored row of the target line at the search's level, computed once per row
+    // (OFFSET 0 keeps PostgreSQL from copying the sum into each place that reads it), filtered
+    // there when a minimum is asked for, and joined to the curves by id
+    const w = plan.weights;
+    const sum = fitnessSql(w, frameSql(w, 'f'));
+    const lineCond = p.line ? ` AND f.line_id = ${s.param(p.line)}` : ' AND f.primary_line';
+    const exact = plan.exact && plan.exact.ids.length > 0;
+    const min = p.minThroughput !== undefined && !exact ? ` WHERE g.tau >= ${s.param(p.minThroughput)}` : '';
+    joins +=
+      ` LEFT JOIN (SELECT g.curve_id, g.line_id, g.tau FROM (SELECT f.curve_id, f.line_id, ${sum} AS tau FROM curve_fitness f` +
+      ` WHERE f.level = ${w.level}${lineCond} OFFSET 0) g${min}) t ON t.curve_id = c.id`;
+    if (exact) {
+      joins += ` LEFT JOIN unnest(${s.param(plan.exact!.ids, '::int[]')}, ${s.param(plan.exact!.taus, '::float8[]')}) AS x(id, tau) ON x.id = c.id`;
+      tau = 'coalesce(x.tau, t.tau)';
+    } else {
+      tau = 't.tau';
+    }
+    if (p.minThroughput !== undefined) common.push(`${tau} >= ${s.param(p.minThroughput)}`);
+  }
+  return { s, common, line, method, fwhm, joins, tau, rank, query };
+}
+
+async function plan(actor: Actor | null, p: SearchParams): Promise<Plan> {
+  const out: Plan = { actor, p };
+  if (hasFitness(p)) {
+    const fq: FitnessQuery = { fNumber: p.fNumber, obstruction: p.obstruction ?? 0, nEff: p.nEff, fieldAngleDeg: p.fieldAngleDeg };
+    out.pupil = buildPupil(opticOf(fq));
+    out.weights = fitnessWeights(fq, out.pupil);
+    out.exact = await exactWhereGridCannot(out, fq);
+  }
+  return out;
+}
+
+/**
+ * The grid stores off-normal curves brought to normal incidence with their own
+ * n_eff, and has no rows for curves that are not verified yet; for those few a
+ * search computes τ with the engine and hands the values to the query.
+ */
+async function exactWhereGridCannot(plan: Plan, fq: FitnessQuery) {
+  const { p } = plan;
+  type Row = { id: number; lines: string[]; aoi_deg: number; n_eff: number | null; fine: string | null; first: number | null; wl: string | null; tr: string | null };
+  // off-normal curves read only the stretch of their fine level this optic reaches
+  const slice = fineSliceSql(fq.nEff ?? 2, plan.pupil!, 'c.aoi_deg');
+  // the line is written into the SQL as a checked id (LINE_IDS), so both statements can share it
+  const target = () => (p.line ? `'${p.line}'` : 'c.lines[1]');
+  const load = async (extra: string) => {
+    const b = clauses(plan, new SqlParts(), false);
+    return db().sequelize.query<Row>(
+      `SELECT c.id, c.lines, c.aoi_deg, c.n_eff, ${slice.first} AS first,
+              array_to_string(g.fine[${slice.first} + 1 : ${slice.last} + 1], ',') AS fine,
+              CASE WHEN g.fine IS NULL THEN array_to_string(c.wavelength_nm, ',') END AS wl,
+              CASE WHEN g.fine IS NULL THEN array_to_string(c.transmission, ',') END AS tr
+       FROM curves c LEFT JOIN curve_fitness_fine g ON g.curve_id = c.id AND g.line_id = ${target()}
+       WHERE ${and([...b.common, b.line, b.method, b.fwhm, extra])} ORDER BY c.id LIMIT ${MAX_EXACT}`,
+      { bind: b.s.bind, type: QueryTypes.SELECT },
+    );
+  };
+  const rows: Row[] = [];
+  // every verified curve has its grid (written when it was verified); only signed-in readers see others
+  if (plan.actor) rows.push(...(await load(`c.status IN ('submitted', 'changes_requested', 'rejected', 'superseded') AND NOT EXISTS (SELECT 1 FROM curve_fitness h WHERE h.line_id = ${target()} AND h.level = 0 AND h.curve_id = c.id)`)));
+  if (p.nEff !== undefined) rows.push(...(await load(`c.aoi_deg > 0 AND c.status = 'verified'`)));
+  const ids: number[] = [];
+  const taus: number[] = [];
+  for (const r of rows) {
+    const lineId = p.line ?? r.lines[0];
+    const l = lineId ? findLine(lineId) : undefined;
+    if (!l || ids.includes(r.id)) continue;
+    const nEff = fq.nEff ?? defaultNEff(r.n_eff);
+    const t =
+      r.fine && fq.nEff !== undefined && r.aoi_deg > 0
+        ? offNormalThroughput(numbers(r.fine), r.aoi_deg, nEff, plan.pupil!, r.first ?? 0)
+        : r.wl && r.tr
+          ? lineThroughput({ wavelengthNm: numbers(r.wl), transmission: numbers(r.tr) }, plan.pupil!, l.airNm, { nEff, measuredAoiDeg: r.aoi_deg }).throughput
+          : null;
+    if (t === null) continue;
+    ids.push(r.id);
+    taus.push(t);
+  }
+  return { ids, taus };
+}
+
+function orderBy(sort: Sort, dir: 'asc' | 'desc', b: Built): string {
+  const d = dir === 'asc' ? 'ASC' : 'DESC';
+  const tie = `c.id ${d}`;
+  // matches curves_catalogue_idx (or its backward scan), so the first page needs no sort
+  const newest = d === 'DESC' ? 'c.verified_at DESC NULLS LAST, c.id DESC' : 'c.verified_at ASC NULLS FIRST, c.id ASC';
+  switch (sort) {
+    case 'relevance':
+      return b.rank ? `${b.rank} ${d}, c.verified_at DESC NULLS LAST, c.id DESC` : newest;
+    case 'cwl':
+      return `c.cwl_nm ${d} NULLS LAST, ${tie}`;
+    case 'fwhm':
+      return `c.fwhm_nm ${d} NULLS LAST, ${tie}`;
+    case 'peak':
+      return `c.peak_t ${d}, ${tie}`;
+    case 'throughput':
+      return `${b.tau} ${d} NULLS LAST, ${tie}`;
+    case 'newest':
+      return newest;
+  }
+}
+
+type PageRow = {
+  id: number; label: string; maker: string | null; lines: string[]; cwl_nm: number | null; fwhm_nm: number | null; peak_t: number;
+  status: string; instrument: string; aoi_deg: number; serial: string | null; verified_at: Date | null; n_eff: number | null;
+  tau: number | null; snippet: string | null; spark_w: number[] | null; spark_t: number[] | null;
+};
+
+function titleOf(r: Pick<PageRow, 'label' | 'serial' | 'aoi_deg'>): string {
+  const parts = [r.serial ? `unit ${r.serial}` : null, r.aoi_deg > 0 ? `measured at ${r.aoi_deg}° AOI` : null].filter(Boolean);
+  return parts.length ? `${r.label} (${parts.join(', ')})` : r.label;
+}
+
+export interface SearchSql {
+  plan: Plan;
+  sort: Sort;
+  dir: 'asc' | 'desc';
+  page: number;
+  pageSize: number;
+  pageSql: string;
+  pageBind: unknown[];
+  facetSql: string;
+  facetBind: unknown[];
+}
+
+/** The two statements of a search (exported so a test can EXPLAIN exactly what runs). */
+export async function buildSearchSql(actor: Actor | null, p: SearchParams): Promise<SearchSql> {
+  const sort: Sort = p.sort ?? (p.q ? 'relevance' : 'newest');
+  const dir = p.dir ?? DEFAULT_DIR[sort];
+  const page = p.page ?? 1;
+  const pageSize = p.pageSize ?? DEFAULT_PAGE_SIZE;
+  const pl = await plan(actor, p);
+
+  // the page: ids in order first, then the costly columns (headline, sparkline) for those rows only
+  const b = clauses(pl, new SqlParts());
+  const ps = b.s;
+  const where = and([...b.common, b.line, b.method, b.fwhm]);
+  const headline = b.query
+    ? `ts_headline('english', concat_ws(' · ', c.notes, c.lab, c.serial), ${b.query}, ${ps.param(`StartSel=${MARK_START}, StopSel=${MARK_END}, MaxWords=24, MinWords=8, MaxFragments=2, FragmentDelimiter=" … "`)})`
+    : 'NULL';
+  // Ranking reads every matching tsvector; a word shared by a third of the library would rank
+  // tens of thousands, so relevance orders the RANK_CANDIDATES newest matches (or as many as the page needs).
+  const ranked = sort === 'relevance' && b.rank;
+  const candidates = Math.max(RANK_CANDIDATES, page * pageSize);
+  const source = ranked
+    ? `(SELECT c.id, c.search, c.verified_at, ${b.tau ?? 'NULL::float8'} AS tau FROM curves c ${b.joins} WHERE ${where}
+        ORDER BY c.verified_at DESC NULLS LAST, c.id DESC LIMIT ${candidates}) c`
+    : `curves c ${b.joins} WHERE ${where}`;
+  const pageSql = `
+    WITH hit AS (
+      SELECT h.id, h.tau, row_number() OVER () AS ord
+      FROM (SELECT c.id, ${ranked ? 'c.tau' : (b.tau ?? 'NULL::float8')} AS tau FROM ${source}
+            ORDER BY ${orderBy(sort, dir, b)} LIMIT ${ps.param(pageSize)} OFFSET ${ps.param((page - 1) * pageSize)}) h
+    )
+    SELECT c.id, c.label, c.maker, c.lines, c.cwl_nm, c.fwhm_nm, c.peak_t, c.status, c.instrument, c.aoi_deg, c.serial,
+           c.verified_at, c.n_eff, hit.tau, ${headline} AS snippet, sp.wavelength_nm AS spark_w, sp.transmission AS spark_t
+    FROM hit JOIN curves c ON c.id = hit.id LEFT JOIN curve_sparklines sp ON sp.curve_id = c.id
+    ORDER BY hit.ord`;
+
+  // The total and every facet from one scan: rows grouped by what the facets look at (instrument,
+  // FWHM bucket, the lines array, whether the FWHM filter holds), a few dozen groups at most;
+  // the counts, each facet leaving out its own filter, are added up from the groups.
+  const fb = clauses(pl, new SqlParts(), true, ['line', 'method']);
+  const buckets = `width_bucket(c.fwhm_nm, ARRAY[${FWHM_BUCKETS.slice(1).map(([a]) => a).join(',')}]::float8[])`;
+  const facetSql = `
+    SELECT c.instrument, CASE WHEN c.fwhm_nm IS NULL THEN NULL ELSE ${buckets} END AS bucket, c.lines,
+           coalesce(${fb.fwhm ?? 'true'}, false) AS pf, count(*) AS n
+    FROM curves c ${fb.joins} WHERE ${and(fb.common)}
+    GROUP BY 1, 2, 3, 4`;
+  return { plan: pl, sort, dir, page, pageSize, pageSql, pageBind: ps.bind, facetSql, facetBind: fb.s.bind };
+}
+
+type CountGroup = { instrument: string; bucket: number | null; lines: string[]; pf: boolean; n: string };
+
+function countGroups(sql: string, bind: unknown[]): Promise<CountGroup[]> {
+  return db().sequelize.query<CountGroup>(sql, { bind, type: QueryTypes.SELECT });
+}
+
+/** Facet counts from the grouped rows: each facet leaves out its own filter. */
+function tallyFacets(p: SearchParams, groups: { instrument: string; bucket: number | null; lines: string[]; pf: boolean; n: string }[]) {
+  const facets: SearchResult['facets'] = { line: [], method: [], fwhm: [] };
+  const line = new Map<string, number>();
+  const method = new Map<string, number>();
+  const fwhm = new Map<number, number>();
+  let total = 0;
+  for (const g of groups) {
+    const n = Number(g.n);
+    const pl = !p.line || g.lines.includes(p.line);
+    const pm = !p.method || g.instrument === p.method;
+    if (pl && pm && g.pf) total += n;
+    if (pl && g.pf) method.set(g.instrument, (method.get(g.instrument) ?? 0) + n);
+    if (pl && pm && g.bucket !== null) fwhm.set(Number(g.bucket), (fwhm.get(Number(g.bucket)) ?? 0) + n);
+    if (pm && g.pf) for (const l of new Set(g.lines)) line.set(l, (line.get(l) ?? 0) + n);
+  }
+  for (const [key, count] of line) facets.line.push({ key, count });
+  for (const [key, count] of method) facets.method.push({ key, count });
+  for (const [b, count] of fwhm) facets.fwhm.push({ key: bucketKey(FWHM_BUCKETS[b]), count });
+  return { total, facets };
+}
+
+export async function searchCurves(actor: Actor | null, p: SearchParams): Promise<SearchResult> {
+  const { plan: pl, sort, dir, page, pageSize, pageSql, pageBind, facetSql, facetBind } = await buildSearchSql(actor, p);
+  const { sequelize } = db();
+  const [rows, groups] = await Promise.all([
+    sequelize.query<PageRow>(pageSql, { bind: pageBind, type: QueryTypes.SELECT }),
+    // only the public catalogue's counts are kept: it changes only when a curve is verified, which clears them
+    actor
+      ? countGroups(facetSql, facetBind)
+      : cachedCounts(`${facetSql}\n${JSON.stringify(facetBind)}`, () => countGroups(facetSql, facetBind)),
+  ]);
+  const { total, facets } = tallyFacets(p, groups);
+  facets.line.sort((a, z) => z.count - a.count || a.key.localeCompare(z.key));
+  facets.method.sort((a, z) => z.count - a.count || a.key.localeCompare(z.key));
+  facets.fwhm.sort((a, z) => parseFloat(a.key) - parseFloat(z.key));
+
+  const items: SearchItem[] = rows.map((r) => ({
+    id: r.id,
+    title: titleOf(r),
+    label: r.label,
+    maker: r.maker,
+    lines: r.lines,
+    cwlNm: r.cwl_nm,
+    fwhmNm: r.fwhm_nm,
+    peakT: r.peak_t,
+    status: r.status,
+    instrument: r.instrument,
+    aoiDeg: r.aoi_deg,
+    verifiedAt: r.verified_at ? new Date(r.verified_at).toISOString() : null,
+    ...(r.snippet && r.snippet.includes(MARK_START) ? { snippet: snippetHtml(r.snippet) } : {}),
+    sparkline: { wavelengthNm: r.spark_w ?? [], transmission: r.spark_t ?? [] },
+  }));
+
+  const missingSpark = rows.filter((r) => !r.spark_w).map((r) => r.id);
+  if (hasFitness(p) || missingSpark.length > 0) await finishPage(p, items, missingSpark);
+
+  return {
+    items, total, page, pageSize, sort, dir, facets,
+    ...(hasFitness(p)
+      ? { fitness: { lineId: p.line ?? null, fNumber: p.fNumber, obstruction: p.obstruction ?? 0, nEff: p.nEff ?? null, fieldAngleDeg: p.fieldAngleDeg ?? 0, gridLevel: pl.weights?.level ?? -1 } }
+      : {}),
+  };
+}
+
+/** Exact throughput (engine, one pupil for the page) and any sparkline the page lacks. */
+async function finishPage(p: SearchParams, items: SearchItem[], missingSpark: number[]) {
+  const ids = hasFitness(p) ? items.map((i) => i.id) : missingSpark;
+  if (ids.length === 0) return;
+  const rows = (
+    await db().sequelize.query<{ id: number; aoi_deg: number; n_eff: number | null; fwhm_nm: number | null; w: string; t: string }>(
+      `SELECT id, aoi_deg, n_eff, fwhm_nm, array_to_string(wavelength_nm, ',') AS w, array_to_string(transmission, ',') AS t FROM curves WHERE id = ANY($1::int[])`,
+      { bind: [ids], type: QueryTypes.SELECT },
+    )
+  ).map((r) => ({ ...r, wavelength_nm: numbers(r.w), transmission: numbers(r.t) }));
+  const byId = new Map(rows.map((r) => [r.id, r]));
+  const pupil = hasFitness(p) ? buildPupil({ fNumber: p.fNumber, obstruction: p.obstruction ?? 0, fieldAngleDeg: p.fieldAngleDeg ?? 0 }) : null;
+  for (const item of items) {
+    const r = byId.get(item.id);
+    if (!r) continue;
+    const points = { wavelengthNm: r.wavelength_nm, transmission: r.transmission };
+    if (missingSpark.includes(item.id)) item.sparkline = sparklineOf(points, r.fwhm_nm);
+    if (pupil && hasFitness(p)) {
+      const lineId = p.line ?? item.lines[0];
+      const line = lineId ? findLine(lineId) : undefined;
+      if (!line) continue;
+      const c = prepareCurve(points);
+      const tau = lineThroughput(c, pupil, line.airNm, { nEff: p.nEff ?? defaultNEff(r.n_eff), measuredAoiDeg: r.aoi_deg }).throughput;
+      item.throughput = tau;
+      item.speedEquivalentFNumber = tau > 1e-12 && c.peak > 0 ? p.fNumber * Math.sqrt(c.peak / tau) : null;
+    }
+  }
+}
+
+/** Ids of every verified curve a search matches, in its order (for exports; no paging). */
+export async function matchingVerifiedIds(p: SearchParams, limit: number): Promise<{ ids: number[]; total: number }> {
+  const pl = await plan(null, { ...p, status: undefined });
+  const b = clauses(pl, new SqlParts());
+  const sort: Sort = p.sort ?? (p.q ? 'relevance' : 'newest');
+  const dir = p.dir ?? DEFAULT_DIR[sort];
+  const rows = await db().sequelize.query<{ id: number; total: string }>(
+    `SELECT c.id, count(*) OVER () AS total FROM curves c ${b.joins} WHERE ${and([...b.common, b.line, b.method, b.fwhm])}
+     ORDER BY ${orderBy(sort, dir, b)} LIMIT ${b.s.param(limit + 1)}`,
+    { bind: b.s.bind, type: QueryTypes.SELECT },
+  );
+  return { ids: rows.slice(0, limit).map((r) => r.id), total: rows.length ? Number(rows[0].total) : 0 };
+}
