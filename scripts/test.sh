@@ -30,8 +30,9 @@ log "migrating the throwaway database"
 npx tsx db/migrate.ts up
 npx tsx seeds/run.ts
 
-log "type-checking"
+log "type-checking and linting"
 npx tsc --noEmit
+npx eslint . --max-warnings 50
 
 export SMTP_CATCHER_PORT="$SMTP_PORT"
 start_bg "$ROOT/.data/test-catcher-$PORT.log" npx tsx scripts/mail-catcher.ts

@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useId, useState, type ReactNode } from 'react';
+import { useId, useState, type ReactNode } from 'react';
 import { LINE_IDS, INSTRUMENTS } from '@/lib/schemas/submission';
 import { FWHM_BUCKETS, bucketKey } from '@/lib/catalogue/search-params';
 import { INSTRUMENT_NAMES, bucketLabel, bucketRange, lineName } from './labels';
@@ -38,7 +38,12 @@ function NumberInput(props: {
   const id = useId();
   const shown = (v: string | undefined) => (v === undefined || v === '' ? '' : props.percent ? String(Number((Number(v) * 100).toPrecision(6))) : v);
   const [text, setText] = useState(shown(props.value));
-  useEffect(() => setText(shown(props.value)), [props.value]); // eslint-disable-line react-hooks/exhaustive-deps
+  // When the URL changes the value (back button, "clear all"), the field follows it.
+  const [seen, setSeen] = useState(props.value);
+  if (seen !== props.value) {
+    setSeen(props.value);
+    setText(shown(props.value));
+  }
   const commit = () => {
     const t = text.trim();
     if (t === shown(props.value)) return;
