@@ -17,6 +17,7 @@ import { DEFAULT_DIR, DEFAULT_PAGE_SIZE, FWHM_BUCKETS, bucketKey, hasFitness, ty
 import { and, MARK_END, MARK_START, snippetHtml, SqlParts } from './sql';
 import { sparklineOf } from './sparkline';
 import { cachedCounts } from './count-cache';
+import { answeredInMemory, searchInMemory, type CountGroup } from './memory-search';
 
 export interface SearchItem {
   id: number;
@@ -159,13 +160,13 @@ function clauses(plan: Plan, s: SqlParts, withFitness = true, omit: ('line' | 'm
   return { s, common, line, method, fwhm, joins, tau, rank, query };
 }
 
-async function plan(actor: Actor | null, p: SearchParams): Promise<Plan> {
+async function plan(actor: Actor | null, p: SearchParams, inSql = true): Promise<Plan> {
   const out: Plan = { actor, p };
   if (hasFitness(p)) {
     const fq: FitnessQuery = { fNumber: p.fNumber, obstruction: p.obstruction ?? 0, nEff: p.nEff, fieldAngleDeg: p.fieldAngleDeg };
     out.pupil = buildPupil(opticOf(fq));
     out.weights = fitnessWeights(fq, out.pupil);
-    out.exact = await exactWhereGridCannot(out, fq);
+    if (inSql) out.exact = await exactWhereGridCannot(out, fq);
   }
   return out;
 }
@@ -183,18 +184,19 @@ async function exactWhereGridCannot(plan: Plan, fq: FitnessQuery) {
   // the line is written into the SQL as a checked id (LINE_IDS), so both statements can share it
   const target = () => (p.line ? `'${p.line}'` : 'c.lines[1]');
   const load = async (extra: string) => {
-    const b = clauses(plan, new SqlParts(), false);
+    const b = clauses(plan, new SqlParts(), false, ['method', 'fwhm']);
     return db().sequelize.query<Row>(
       `SELECT c.id, c.lines, c.aoi_deg, c.n_eff, ${slice.first} AS first,
               array_to_string(g.fine[${slice.first} + 1 : ${slice.last} + 1], ',') AS fine,
               CASE WHEN g.fine IS NULL THEN array_to_string(c.wavelength_nm, ',') END AS wl,
               CASE WHEN g.fine IS NULL THEN array_to_string(c.transmission, ',') END AS tr
        FROM curves c LEFT JOIN curve_fitness_fine g ON g.curve_id = c.id AND g.line_id = ${target()}
-       WHERE ${and([...b.common, b.line, b.method, b.fwhm, extra])} ORDER BY c.id LIMIT ${MAX_EXACT}`,
+       WHERE ${and([...b.common, b.line, extra])} ORDER BY c.id LIMIT ${MAX_EXACT}`,
       { bind: b.s.bind, type: QueryTypes.SELECT },
     );
   };
   const rows: Row[] = [];
+  // method and FWHM are left out: the facet counts, which drop those filters in turn, need the same τ
   // every verified curve has its grid (written when it was verified); only signed-in readers see others
   if (plan.actor) rows.push(...(await load(`c.status IN ('submitted', 'changes_requested', 'rejected', 'superseded') AND NOT EXISTS (SELECT 1 FROM curve_fitness h WHERE h.line_id = ${target()} AND h.level = 0 AND h.curve_id = c.id)`)));
   if (p.nEff !== undefined) rows.push(...(await load(`c.aoi_deg > 0 AND c.status = 'verified'`)));
@@ -250,6 +252,10 @@ function titleOf(r: Pick<PageRow, 'label' | 'serial' | 'aoi_deg'>): string {
   return parts.length ? `${r.label} (${parts.join(', ')})` : r.label;
 }
 
+/** The columns of a result row, for both ways of answering. */
+const PAGE_COLUMNS = `c.id, c.label, c.maker, c.lines, c.cwl_nm, c.fwhm_nm, c.peak_t, c.status, c.instrument, c.aoi_deg, c.serial,
+           c.verified_at, c.n_eff`;
+
 export interface SearchSql {
   plan: Plan;
   sort: Sort;
@@ -263,11 +269,13 @@ export interface SearchSql {
 }
 
 /** The two statements of a search (exported so a test can EXPLAIN exactly what runs). */
-export async function buildSearchSql(actor: Actor | null, p: SearchParams): Promise<SearchSql> {
+function ordering(p: SearchParams) {
   const sort: Sort = p.sort ?? (p.q ? 'relevance' : 'newest');
-  const dir = p.dir ?? DEFAULT_DIR[sort];
-  const page = p.page ?? 1;
-  const pageSize = p.pageSize ?? DEFAULT_PAGE_SIZE;
+  return { sort, dir: p.dir ?? DEFAULT_DIR[sort], page: p.page ?? 1, pageSize: p.pageSize ?? DEFAULT_PAGE_SIZE };
+}
+
+export async function buildSearchSql(actor: Actor | null, p: SearchParams): Promise<SearchSql> {
+  const { sort, dir, page, pageSize } = ordering(p);
   const pl = await plan(actor, p);
 
   // the page: ids in order first, then the costly columns (headline, sparkline) for those rows only
@@ -291,8 +299,7 @@ export async function buildSearchSql(actor: Actor | null, p: SearchParams): Prom
       FROM (SELECT c.id, ${ranked ? 'c.tau' : (b.tau ?? 'NULL::float8')} AS tau FROM ${source}
             ORDER BY ${orderBy(sort, dir, b)} LIMIT ${ps.param(pageSize)} OFFSET ${ps.param((page - 1) * pageSize)}) h
     )
-    SELECT c.id, c.label, c.maker, c.lines, c.cwl_nm, c.fwhm_nm, c.peak_t, c.status, c.instrument, c.aoi_deg, c.serial,
-           c.verified_at, c.n_eff, hit.tau, ${headline} AS snippet, sp.wavelength_nm AS spark_w, sp.transmission AS spark_t
+    SELECT ${PAGE_COLUMNS}, hit.tau, ${headline} AS snippet, sp.wavelength_nm AS spark_w, sp.transmission AS spark_t
     FROM hit JOIN curves c ON c.id = hit.id LEFT JOIN curve_sparklines sp ON sp.curve_id = c.id
     ORDER BY hit.ord`;
 
@@ -309,14 +316,12 @@ export async function buildSearchSql(actor: Actor | null, p: SearchParams): Prom
   return { plan: pl, sort, dir, page, pageSize, pageSql, pageBind: ps.bind, facetSql, facetBind: fb.s.bind };
 }
 
-type CountGroup = { instrument: string; bucket: number | null; lines: string[]; pf: boolean; n: string };
-
 function countGroups(sql: string, bind: unknown[]): Promise<CountGroup[]> {
   return db().sequelize.query<CountGroup>(sql, { bind, type: QueryTypes.SELECT });
 }
 
 /** Facet counts from the grouped rows: each facet leaves out its own filter. */
-function tallyFacets(p: SearchParams, groups: { instrument: string; bucket: number | null; lines: string[]; pf: boolean; n: string }[]) {
+function tallyFacets(p: SearchParams, groups: CountGroup[]) {
   const facets: SearchResult['facets'] = { line: [], method: [], fwhm: [] };
   const line = new Map<string, number>();
   const method = new Map<string, number>();
@@ -337,7 +342,13 @@ function tallyFacets(p: SearchParams, groups: { instrument: string; bucket: numb
   return { total, facets };
 }
 
-export async function searchCurves(actor: Actor | null, p: SearchParams): Promise<SearchResult> {
+export interface SearchOptions {
+  /** false runs every search in SQL (tests compare the two ways of answering). */
+  memory?: boolean;
+}
+
+export async function searchCurves(actor: Actor | null, p: SearchParams, options: SearchOptions = {}): Promise<SearchResult> {
+  if (options.memory !== false && answeredInMemory(actor, p)) return searchCopy(actor, p);
   const { plan: pl, sort, dir, page, pageSize, pageSql, pageBind, facetSql, facetBind } = await buildSearchSql(actor, p);
   const { sequelize } = db();
   const [rows, groups] = await Promise.all([
@@ -347,6 +358,30 @@ export async function searchCurves(actor: Actor | null, p: SearchParams): Promis
       ? countGroups(facetSql, facetBind)
       : cachedCounts(`${facetSql}\n${JSON.stringify(facetBind)}`, () => countGroups(facetSql, facetBind)),
   ]);
+  return assemble(p, pl, { sort, dir, page, pageSize }, rows, groups);
+}
+
+/** A fitness search over the verified catalogue, from the in-process copy (memory-search.ts); the page's rows from SQL. */
+async function searchCopy(actor: Actor | null, p: SearchParams & { fNumber: number }): Promise<SearchResult> {
+  const o = ordering(p);
+  const pl = await plan(actor, p, false);
+  const { ids, taus, groups } = await searchInMemory(p, pl.weights!, pl.pupil!, o.sort, o.dir, o.page, o.pageSize);
+  const found = ids.length
+    ? await db().sequelize.query<PageRow>(
+        `SELECT ${PAGE_COLUMNS}, NULL AS snippet, sp.wavelength_nm AS spark_w, sp.transmission AS spark_t
+         FROM curves c LEFT JOIN curve_sparklines sp ON sp.curve_id = c.id WHERE c.id = ANY($1::int[])`,
+        { bind: [ids], type: QueryTypes.SELECT },
+      )
+    : [];
+  const byId = new Map(found.map((r) => [r.id, r]));
+  const rows = ids.flatMap((id, k) => {
+    const r = byId.get(id);
+    return r ? [{ ...r, tau: taus[k] }] : [];
+  });
+  return assemble(p, pl, o, rows, groups);
+}
+
+async function assemble(p: SearchParams, pl: Plan, o: { sort: Sort; dir: 'asc' | 'desc'; page: number; pageSize: number }, rows: PageRow[], groups: CountGroup[]): Promise<SearchResult> {
   const { total, facets } = tallyFacets(p, groups);
   facets.line.sort((a, z) => z.count - a.count || a.key.localeCompare(z.key));
   facets.method.sort((a, z) => z.count - a.count || a.key.localeCompare(z.key));
@@ -373,7 +408,7 @@ export async function searchCurves(actor: Actor | null, p: SearchParams): Promis
   if (hasFitness(p) || missingSpark.length > 0) await finishPage(p, items, missingSpark);
 
   return {
-    items, total, page, pageSize, sort, dir, facets,
+    items, total, ...o, facets,
     ...(hasFitness(p)
       ? { fitness: { lineId: p.line ?? null, fNumber: p.fNumber, obstruction: p.obstruction ?? 0, nEff: p.nEff ?? null, fieldAngleDeg: p.fieldAngleDeg ?? 0, gridLevel: pl.weights?.level ?? -1 } }
       : {}),

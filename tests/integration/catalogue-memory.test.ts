@@ -1,0 +1,120 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { QueryTypes } from 'sequelize';
+import { closeSequelize, getSequelize } from '@/db/connection';
+import { searchCurves, type SearchResult } from '@/lib/catalogue/search';
+import { parseSearchParams } from '@/lib/catalogue/search-params';
+import { answeredInMemory } from '@/lib/catalogue/memory-search';
+import { catalogueCopy, currentVersion } from '@/lib/catalogue/memory-index';
+import type { Actor } from '@/lib/auth/actor';
+
+afterAll(() => closeSequelize());
+
+const moderator: Actor = { id: '00000000-0000-0000-0000-000000000000', email: 'm@x', name: null, role: 'moderator', via: 'session' };
+
+/** What a reader sees of an answer: the page in order, the total and every facet count. */
+const seen = (r: SearchResult) => ({ ids: r.items.map((i) => i.id), total: r.total, facets: r.facets, taus: r.items.map((i) => i.throughput) });
+
+// Fitness searches of every shape the in-process copy answers: line named or not, each curve's own
+// n_eff or a named one (off-normal curves then come from their fine level), field angles, every
+// filter, every sort in both directions, later pages.
+const SEARCHES = [
+  'line=Ha&fNumber=2.2&obstruction=0.4&minThroughput=0.85&sort=throughput',
+  'line=Ha&fwhmMax=5&fNumber=2.2&obstruction=0.4&minThroughput=0.6',
+  'line=OIII&fNumber=1.8&obstruction=0.2&sort=throughput&pageSize=30',
+  'line=OIII&fNumber=1.8&obstruction=0.2&sort=throughput&dir=asc&page=2&pageSize=5',
+  'fNumber=2.2&obstruction=0.4&minThroughput=0.5&sort=throughput',
+  'fNumber=3&minThroughput=0.4&sort=cwl&dir=desc&page=2&pageSize=10',
+  'fNumber=3&sort=newest&dir=asc&pageSize=7&page=3',
+  'fNumber=4&sort=peak&pageSize=15',
+  'fNumber=4&sort=fwhm&dir=desc&fwhmMin=2',
+  'line=Ha&fNumber=2.8&obstruction=0.3&nEff=1.7&fieldAngleDeg=8&minThroughput=0.3&sort=throughput',
+  'fNumber=2&nEff=2.1&minThroughput=0.5&method=spectrograph',
+  'fNumber=1.4&obstruction=0.35&nEff=1.6&minThroughput=0.2&aoiMin=1',
+  'line=SII-671&fNumber=2.8&minThroughput=0.5&cwlMin=660&peakMin=0.8&aoiMax=10',
+  'fNumber=5&fieldAngleDeg=12&minThroughput=0.7&method=monochromator&sort=throughput&dir=asc',
+];
+
+describe('the in-process copy answers fitness searches exactly as the SQL does', () => {
+  it('same page, order, total, facets and throughputs for every kind of fitness search', async () => {
+    let nonEmpty = 0;
+    for (const qs of SEARCHES) {
+      const p = parseSearchParams(new URLSearchParams(qs));
+      expect(answeredInMemory(null, p), qs).toBe(true);
+      const fromSql = await searchCurves(null, p, { memory: false });
+      const fromCopy = await searchCurves(null, p);
+      expect(seen(fromCopy), qs).toEqual(seen(fromSql));
+      if (fromSql.items.length > 0) nonEmpty++;
+    }
+    // the comparison means something only if most searches find curves
+    expect(nonEmpty).toBeGreaterThanOrEqual(SEARCHES.length - 2);
+  });
+
+  it('a moderator asking for verified curves is answered from the copy too; other statuses and words go to SQL', async () => {
+    const p = parseSearchParams(new URLSearchParams('line=Ha&fNumber=2&minThroughput=0.5&status=verified'));
+    expect(answeredInMemory(moderator, p)).toBe(true);
+    expect(seen(await searchCurves(moderator, p))).toEqual(seen(await searchCurves(moderator, p, { memory: false })));
+    expect(answeredInMemory(moderator, parseSearchParams(new URLSearchParams('fNumber=2')))).toBe(false);
+    expect(answeredInMemory(null, parseSearchParams(new URLSearchParams('fNumber=2&q=meadow')))).toBe(false);
+    expect(answeredInMemory(null, parseSearchParams(new URLSearchParams('line=Ha')))).toBe(false);
+  });
+});
+
+describe('the copy follows the library', () => {
+  const sequelize = getSequelize();
+
+  it('catalogue_version moves once per committed change and not for a rolled-back one', async () => {
+    const before = Number(await currentVersion());
+    await sequelize.transaction(async (transaction) => {
+      // two statements touching many rows: still one step
+      await sequelize.query(`UPDATE curves SET updated_at = updated_at WHERE status = 'verified'`, { transaction });
+      await sequelize.query(`UPDATE curve_fitness SET level = level WHERE level = 0`, { transaction });
+    });
+    expect(Number(await currentVersion())).toBe(before + 1);
+    await expect(
+      sequelize.transaction(async (transaction) => {
+        await sequelize.query(`UPDATE curves SET updated_at = updated_at WHERE status = 'verified'`, { transaction });
+        throw new Error('roll back');
+      }),
+    ).rejects.toThrow('roll back');
+    expect(Number(await currentVersion())).toBe(before + 1);
+  });
+
+  it('a newly verified curve is found by the next fitness search, and a withdrawn one is gone', async () => {
+    const qs = 'line=Ha&fNumber=2.2&obstruction=0.4&sort=throughput&pageSize=1';
+    const p = parseSearchParams(new URLSearchParams(qs));
+    const best = (await searchCurves(null, p)).items[0];
+    expect(best).toBeDefined();
+    const stale = await catalogueCopy();
+    const totalBefore = (await searchCurves(null, p)).total;
+
+    // a copy of the best curve, verified later, with a higher id: it sorts just after the original
+    const [{ id }] = await sequelize.query<{ id: number }>(
+      `INSERT INTO curves (submission_id, file_id, contributor_id, status, label, maker, lines, serial, notes, licence, method, instrument, aoi_deg,
+                           wavelength_nm, transmission, point_count, points_hash, peak_t, cwl_nm, fwhm_nm, mean_in_band_t, effective_bandwidth_nm,
+                           blocking_od, line_transmission, n_eff, verified_at)
+       SELECT NULL, NULL, contributor_id, 'verified', label || ' (copy for a test)', maker, lines, serial, notes, licence, method, instrument, aoi_deg,
+              wavelength_nm, transmission, point_count, points_hash, peak_t, cwl_nm, fwhm_nm, mean_in_band_t, effective_bandwidth_nm,
+              blocking_od, line_transmission, n_eff, now()
+       FROM curves WHERE id = $1 RETURNING id`,
+      { bind: [best.id], type: QueryTypes.SELECT },
+    );
+    try {
+      await sequelize.query(
+        `INSERT INTO curve_fitness (curve_id, line_id, level, primary_line, n_eff_default, direct, canonical)
+         SELECT $2, line_id, level, primary_line, n_eff_default, direct, canonical FROM curve_fitness WHERE curve_id = $1`,
+        { bind: [best.id, id] },
+      );
+      const after = await searchCurves(null, p);
+      expect(await catalogueCopy()).not.toBe(stale);
+      expect(after.total).toBe(totalBefore + 1);
+      const two = await searchCurves(null, parseSearchParams(new URLSearchParams(qs.replace('pageSize=1', 'pageSize=2'))));
+      // equal throughput; the tie goes to the higher id first, as in SQL (throughput DESC, id DESC)
+      expect(two.items.map((i) => i.id)).toEqual([id, best.id]);
+    } finally {
+      await sequelize.query(`DELETE FROM curves WHERE id = $1`, { bind: [id] });
+    }
+    const gone = await searchCurves(null, p);
+    expect(gone.total).toBe(totalBefore);
+    expect(gone.items[0].id).toBe(best.id);
+  });
+});
