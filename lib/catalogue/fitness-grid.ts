@@ -192,6 +192,39 @@ export function offNormalThroughput(stored: ArrayLike<number>, aoiDeg: number, n
 }
 
 /**
+ * offNormalThroughput is linear in the stored running sums (no constant term), so
+ * for one AOI, n_eff and optic it is a fixed set of coefficients over the slice of
+ * the fine level it reads: found by feeding it each unit vector of that slice, and
+ * then applied to every curve measured at that AOI as one dot product. Worth it
+ * when more curves share the AOI than the slice is wide (AOIs are usually round numbers).
+ */
+export interface OffNormalCoefficients {
+  first: number;
+  coef: Float64Array;
+}
+
+export function offNormalCoefficients(aoiDeg: number, nEff: number, pupil: Pupil): OffNormalCoefficients {
+  const { first, last } = fineSliceBounds(nEff, pupil, aoiDeg);
+  const width = Math.max(0, last - first + 1);
+  const coef = new Float64Array(width);
+  const unit = new Float64Array(width);
+  for (let k = 0; k < width; k++) {
+    unit[k] = 1;
+    coef[k] = offNormalThroughput(unit, aoiDeg, nEff, pupil, first);
+    unit[k] = 0;
+  }
+  return { first, coef };
+}
+
+/** offNormalThroughput through its coefficients; `stored` starts at running sum number `offset`. */
+export function applyOffNormal(c: OffNormalCoefficients, stored: ArrayLike<number>, offset = 0): number {
+  let tau = 0;
+  const at = c.first - offset;
+  for (let k = 0; k < c.coef.length; k++) tau += c.coef[k] * stored[at + k];
+  return tau;
+}
+
+/**
  * SQL for the part of a curve's fine level that offNormalThroughput will read for
  * this optic and n_eff: [first, last] running sums, with a margin for the cubic.
  */

@@ -17,11 +17,14 @@ import { QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
 import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
 import { FINE_INTERVALS, INTERVALS, LEVEL_STEPS } from './fitness-grid';
+import { FWHM_BUCKETS } from './search-params';
 
 /** Interval means of one level of one frame, per row (running sums differenced: they fit 16 bits, see SCALE/quantise). */
 export interface GridBlock {
   /** Row of each snapshot curve in this block, or -1. */
   rowOf: Int32Array;
+  /** Snapshot curve of each row. */
+  members: Int32Array;
   direct: Uint16Array;
   /** Row offset into `canonical` (in rows), or -1 when the curve keeps no canonical frame. */
   canonRow: Int32Array;
@@ -55,6 +58,10 @@ export interface Snapshot {
   lineSets: string[][];
   /** Index of each curve's first line in LINE_IDS, or -1. */
   firstLine: Int8Array;
+  /** Bit k set when the curve targets LINE_IDS[k]. */
+  lineMask: Int32Array;
+  /** 1 + PostgreSQL's width_bucket over the FWHM facet's edges, 0 when the FWHM is unknown. */
+  fwhmBucket: Uint8Array;
   blocks: Map<string, Promise<GridBlock>>;
   fine: Map<string, Promise<FineBlock>>;
   /** Blocks in order of last use, for the memory budget. */
@@ -71,6 +78,15 @@ export class StaleCopy extends Error {
 const BUDGET_BYTES = Number(process.env.BANDCONE_FITNESS_CACHE_MB ?? 160) * 1024 * 1024;
 
 const state = globalThis as unknown as { bandconeCatalogueCopy?: Promise<Snapshot> };
+
+const EDGES = FWHM_BUCKETS.slice(1).map(([a]) => a);
+
+/** PostgreSQL's width_bucket(x, edges): how many edges are ≤ x. */
+export function widthBucket(x: number): number {
+  let k = 0;
+  while (k < EDGES.length && EDGES[k] <= x) k++;
+  return k;
+}
 
 const split = (s: string | null): string[] => (s ? s.split(',') : []);
 const num = (s: string): number => (s === '' ? NaN : Number(s));
@@ -124,6 +140,8 @@ async function loadSnapshot(): Promise<Snapshot> {
     lineSet: new Int32Array(n),
     lineSets: [],
     firstLine: new Int8Array(n),
+    lineMask: new Int32Array(n),
+    fwhmBucket: new Uint8Array(n),
     blocks: new Map(),
     fine: new Map(),
     used: new Map(),
@@ -142,6 +160,11 @@ async function loadSnapshot(): Promise<Snapshot> {
     if (l === undefined) sets.set(lines[i], (l = s.lineSets.push(lines[i] ? lines[i].split(' ') : []) - 1));
     s.lineSet[i] = l;
     s.firstLine[i] = (LINE_IDS as readonly string[]).indexOf(s.lineSets[l][0] ?? '');
+    for (const id of s.lineSets[l]) {
+      const k = (LINE_IDS as readonly string[]).indexOf(id);
+      if (k >= 0) s.lineMask[i] |= 1 << k;
+    }
+    s.fwhmBucket[i] = Number.isNaN(s.fwhm[i]) ? 0 : widthBucket(s.fwhm[i]) + 1;
   }
   return s;
 }
@@ -216,6 +239,7 @@ async function loadBlock(s: Snapshot, lineId: string, level: number): Promise<Gr
   const find = rowIndex(s);
   const m = rows.length;
   const rowOf = new Int32Array(s.n).fill(-1);
+  const members = new Int32Array(m);
   const direct = new Uint16Array(m * INTERVALS);
   const canonRow = new Int32Array(m).fill(-1);
   const nEffDefault = new Float64Array(m);
@@ -226,6 +250,7 @@ async function loadBlock(s: Snapshot, lineId: string, level: number): Promise<Gr
     const i = find(r.id);
     if (i < 0) throw new StaleCopy();
     rowOf[i] = j;
+    members[j] = i;
     nEffDefault[j] = r.n;
     meansInto(direct, j * INTERVALS, r.d);
     if (r.k) {
@@ -234,8 +259,8 @@ async function loadBlock(s: Snapshot, lineId: string, level: number): Promise<Gr
       c++;
     }
   });
-  const bytes = rowOf.byteLength + direct.byteLength + canonRow.byteLength + canonical.byteLength + nEffDefault.byteLength;
-  return { rowOf, direct, canonRow, canonical, nEffDefault, bytes };
+  const bytes = rowOf.byteLength + members.byteLength + direct.byteLength + canonRow.byteLength + canonical.byteLength + nEffDefault.byteLength;
+  return { rowOf, members, direct, canonRow, canonical, nEffDefault, bytes };
 }
 
 async function loadFine(s: Snapshot, lineId: string): Promise<FineBlock> {

@@ -17,6 +17,7 @@ import { DEFAULT_DIR, DEFAULT_PAGE_SIZE, FWHM_BUCKETS, bucketKey, hasFitness, ty
 import { and, MARK_END, MARK_START, snippetHtml, SqlParts } from './sql';
 import { sparklineOf } from './sparkline';
 import { cachedCounts } from './count-cache';
+import { binaryArraySql, readFloat8Array } from './binary-array';
 import { answeredInMemory, searchInMemory, type CountGroup } from './memory-search';
 
 export interface SearchItem {
@@ -54,7 +55,7 @@ export interface SearchResult {
   fitness?: { lineId: string | null; fNumber: number; obstruction: number; nEff: number | null; fieldAngleDeg: number; gridLevel: number };
 }
 
-/** Arrays come back as text and are split here: several times quicker than the driver's array parser for whole curves. */
+/** Integer arrays (the fine level) come back as text and are split here: several times quicker than the driver's array parser. */
 function numbers(text: string): number[] {
   return text.split(',').map(Number);
 }
@@ -178,7 +179,7 @@ async function plan(actor: Actor | null, p: SearchParams, inSql = true): Promise
  */
 async function exactWhereGridCannot(plan: Plan, fq: FitnessQuery) {
   const { p } = plan;
-  type Row = { id: number; lines: string[]; aoi_deg: number; n_eff: number | null; fine: string | null; first: number | null; wl: string | null; tr: string | null };
+  type Row = { id: number; lines: string[]; aoi_deg: number; n_eff: number | null; fine: string | null; first: number | null; wl: Buffer | null; tr: Buffer | null };
   // off-normal curves read only the stretch of their fine level this optic reaches
   const slice = fineSliceSql(fq.nEff ?? 2, plan.pupil!, 'c.aoi_deg');
   // the line is written into the SQL as a checked id (LINE_IDS), so both statements can share it
@@ -188,8 +189,8 @@ async function exactWhereGridCannot(plan: Plan, fq: FitnessQuery) {
     return db().sequelize.query<Row>(
       `SELECT c.id, c.lines, c.aoi_deg, c.n_eff, ${slice.first} AS first,
               array_to_string(g.fine[${slice.first} + 1 : ${slice.last} + 1], ',') AS fine,
-              CASE WHEN g.fine IS NULL THEN array_to_string(c.wavelength_nm, ',') END AS wl,
-              CASE WHEN g.fine IS NULL THEN array_to_string(c.transmission, ',') END AS tr
+              CASE WHEN g.fine IS NULL THEN ${binaryArraySql('c.wavelength_nm')} END AS wl,
+              CASE WHEN g.fine IS NULL THEN ${binaryArraySql('c.transmission')} END AS tr
        FROM curves c LEFT JOIN curve_fitness_fine g ON g.curve_id = c.id AND g.line_id = ${target()}
        WHERE ${and([...b.common, b.line, extra])} ORDER BY c.id LIMIT ${MAX_EXACT}`,
       { bind: b.s.bind, type: QueryTypes.SELECT },
@@ -211,7 +212,7 @@ async function exactWhereGridCannot(plan: Plan, fq: FitnessQuery) {
       r.fine && fq.nEff !== undefined && r.aoi_deg > 0
         ? offNormalThroughput(numbers(r.fine), r.aoi_deg, nEff, plan.pupil!, r.first ?? 0)
         : r.wl && r.tr
-          ? lineThroughput({ wavelengthNm: numbers(r.wl), transmission: numbers(r.tr) }, plan.pupil!, l.airNm, { nEff, measuredAoiDeg: r.aoi_deg }).throughput
+          ? lineThroughput({ wavelengthNm: readFloat8Array(r.wl), transmission: readFloat8Array(r.tr) }, plan.pupil!, l.airNm, { nEff, measuredAoiDeg: r.aoi_deg }).throughput
           : null;
     if (t === null) continue;
     ids.push(r.id);
@@ -420,11 +421,11 @@ async function finishPage(p: SearchParams, items: SearchItem[], missingSpark: nu
   const ids = hasFitness(p) ? items.map((i) => i.id) : missingSpark;
   if (ids.length === 0) return;
   const rows = (
-    await db().sequelize.query<{ id: number; aoi_deg: number; n_eff: number | null; fwhm_nm: number | null; w: string; t: string }>(
-      `SELECT id, aoi_deg, n_eff, fwhm_nm, array_to_string(wavelength_nm, ',') AS w, array_to_string(transmission, ',') AS t FROM curves WHERE id = ANY($1::int[])`,
+    await db().sequelize.query<{ id: number; aoi_deg: number; n_eff: number | null; fwhm_nm: number | null; w: Buffer; t: Buffer }>(
+      `SELECT id, aoi_deg, n_eff, fwhm_nm, ${binaryArraySql('wavelength_nm')} AS w, ${binaryArraySql('transmission')} AS t FROM curves WHERE id = ANY($1::int[])`,
       { bind: [ids], type: QueryTypes.SELECT },
     )
-  ).map((r) => ({ ...r, wavelength_nm: numbers(r.w), transmission: numbers(r.t) }));
+  ).map((r) => ({ ...r, wavelength_nm: readFloat8Array(r.w), transmission: readFloat8Array(r.t) }));
   const byId = new Map(rows.map((r) => [r.id, r]));
   const pupil = hasFitness(p) ? buildPupil({ fNumber: p.fNumber, obstruction: p.obstruction ?? 0, fieldAngleDeg: p.fieldAngleDeg ?? 0 }) : null;
   for (const item of items) {

@@ -6,6 +6,7 @@ import { parseSearchParams } from '@/lib/catalogue/search-params';
 import { answeredInMemory } from '@/lib/catalogue/memory-search';
 import { catalogueCopy, currentVersion } from '@/lib/catalogue/memory-index';
 import type { Actor } from '@/lib/auth/actor';
+import { binaryArraySql, readFloat8Array } from '@/lib/catalogue/binary-array';
 
 afterAll(() => closeSequelize());
 
@@ -116,5 +117,23 @@ describe('the copy follows the library', () => {
     const gone = await searchCurves(null, p);
     expect(gone.total).toBe(totalBefore);
     expect(gone.items[0].id).toBe(best.id);
+  });
+});
+
+describe('whole curves in binary form', () => {
+  it('read back exactly the doubles PostgreSQL prints for them', async () => {
+    const rows = await getSequelize().query<{ w: Buffer; t: Buffer; wt: string; tt: string }>(
+      `SELECT ${binaryArraySql('wavelength_nm')} AS w, ${binaryArraySql('transmission')} AS t,
+              array_to_string(wavelength_nm, ',') AS wt, array_to_string(transmission, ',') AS tt
+       FROM curves ORDER BY id LIMIT 25`,
+      { type: QueryTypes.SELECT },
+    );
+    expect(rows.length).toBeGreaterThan(10);
+    for (const r of rows) {
+      // PostgreSQL 12+ prints the shortest text that reads back as the same double
+      expect(readFloat8Array(r.w)).toEqual(r.wt.split(',').map(Number));
+      expect(readFloat8Array(r.t)).toEqual(r.tt.split(',').map(Number));
+    }
+    expect(() => readFloat8Array(Buffer.from([0, 0, 0, 1, 0, 0, 0, 0, 0, 0, 0, 23, 0, 0, 0, 0, 0, 0, 0, 1]))).toThrow(/float8/);
   });
 });
