@@ -1,7 +1,7 @@
 // Fires a fixed mix of catalogue searches (text, parametric, fitness) at a running server
 // through HTTP and prints p50/p95 latency, throughput and the server's memory against the
 // targets: p95 ≤ 80 ms for each kind, server RSS ≤ 500 MB.
-//   npm run bench:search -- [--url http://127.0.0.1:3000] [--duration 20] [--connections 4] [--pid <server pid>] [--cold]
+//   npm run bench:search -- [--url http://127.0.0.1:3000] [--duration 20] [--connections 4] [--pid <server pid>] [--cold] [--kinds text,fitness]
 // The public catalogue's totals and facet counts are kept for 30 s per distinct search (paging and
 // re-sorting ask for them again); --cold makes every request a distinct search, so none is reused.
 // Point the server at the scale database first (npm run seed:scale, then DATABASE_URL=… next start).
@@ -30,6 +30,7 @@ const WARMUP = 3;
 const TARGET_P95_MS = 80;
 const TARGET_RSS_MB = 500;
 const COLD = process.argv.includes('--cold');
+const ONLY = arg('kinds', '').split(',').filter(Boolean);
 let counter = 0;
 
 // The fixed mix. Each connection walks its list in order and starts again.
@@ -162,6 +163,7 @@ async function main() {
   const sampler = setInterval(() => (peak = Math.max(peak, rssMb(pids))), 250);
   const rows = [];
   for (const [kind, paths] of Object.entries(KINDS)) {
+    if (ONLY.length > 0 && !ONLY.includes(kind)) continue;
     await run(kind, paths, WARMUP);
     rows.push(await run(kind, paths, DURATION));
   }

@@ -16,19 +16,19 @@
 import { QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
 import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
-import { FINE_INTERVALS, INTERVALS, LEVEL_STEPS } from './fitness-grid';
+import { FINE_INTERVALS, LEVEL_LENGTH, LEVEL_STEPS } from './fitness-grid';
 import { FWHM_BUCKETS } from './search-params';
 
-/** Interval means of one level of one frame, per row (running sums differenced: they fit 16 bits, see SCALE/quantise). */
+/** One level of the fitness grid for one line: the stored running sums (LEVEL_LENGTH per row), as in curve_fitness. */
 export interface GridBlock {
   /** Row of each snapshot curve in this block, or -1. */
   rowOf: Int32Array;
   /** Snapshot curve of each row. */
   members: Int32Array;
-  direct: Uint16Array;
+  direct: Int32Array;
   /** Row offset into `canonical` (in rows), or -1 when the curve keeps no canonical frame. */
   canonRow: Int32Array;
-  canonical: Uint16Array;
+  canonical: Int32Array;
   nEffDefault: Float64Array;
   bytes: number;
 }
@@ -88,52 +88,42 @@ export function widthBucket(x: number): number {
   return k;
 }
 
-const split = (s: string | null): string[] => (s ? s.split(',') : []);
-const num = (s: string): number => (s === '' ? NaN : Number(s));
 
 export async function currentVersion(): Promise<string> {
   const rows = await db().sequelize.query<{ v: string }>(`SELECT version::text AS v FROM catalogue_version`, { type: QueryTypes.SELECT });
   return rows[0]?.v ?? '0';
 }
 
+type SnapshotRow = {
+  v: string; id: number | null; cwl: number | null; fwhm: number | null; peak: number; aoi: number; verified: number | null;
+  instrument: string; contributor: string; lines: string;
+};
+
 async function loadSnapshot(): Promise<Snapshot> {
-  // one statement, so the version and the rows are of the same moment; the columns are all in the
-  // covering indexes (an index-only scan) and come back as comma-joined text, which splits several
-  // times faster than the driver parses 100 000 rows; they are put in id order here
-  const [r] = await db().sequelize.query<Record<string, string | null>>(
-    `SELECT (SELECT version::text FROM catalogue_version) AS v,
-            string_agg(id::text, ',') AS ids,
-            string_agg(coalesce(cwl_nm::text, ''), ',') AS cwl,
-            string_agg(coalesce(fwhm_nm::text, ''), ',') AS fwhm,
-            string_agg(peak_t::text, ',') AS peak,
-            string_agg(aoi_deg::text, ',') AS aoi,
-            string_agg(coalesce((extract(epoch FROM verified_at) * 1000000)::bigint::text, ''), ',') AS verified,
-            string_agg(instrument, ',') AS instrument,
-            string_agg(contributor_id::text, ',') AS contributor,
-            string_agg(array_to_string(lines, ' '), ',') AS lines
-     FROM curves WHERE status = 'verified'`,
+  // One statement, so the version and the rows are of the same moment (the LEFT JOIN from the
+  // version row answers even for an empty catalogue); the columns all sit in the covering
+  // indexes, so it is an index-only scan. Many plain rows: node-postgres copes far better with
+  // them than with one row of several megabytes.
+  const rows = await db().sequelize.query<SnapshotRow>(
+    `SELECT k.version::text AS v, c.id, c.cwl_nm AS cwl, c.fwhm_nm AS fwhm, c.peak_t AS peak, c.aoi_deg AS aoi,
+            (extract(epoch FROM c.verified_at) * 1000000)::float8 AS verified, c.instrument, c.contributor_id AS contributor,
+            array_to_string(c.lines, ' ') AS lines
+     FROM catalogue_version k LEFT JOIN curves c ON c.status = 'verified'`,
     { type: QueryTypes.SELECT },
   );
-  const raw = split(r.ids).map(Number);
-  const n = raw.length;
-  const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => raw[a] - raw[b]);
-  const numbers = (text: string | null) => {
-    const parts = split(text);
-    return Float64Array.from(order, (k) => num(parts[k]));
-  };
-  const texts = (text: string | null) => {
-    const parts = split(text);
-    return order.map((k) => parts[k]);
-  };
+  const version = rows[0]?.v ?? '0';
+  const sorted = rows.filter((r) => r.id !== null).sort((a, z) => a.id! - z.id!);
+  const n = sorted.length;
+  const column = (pick: (r: SnapshotRow) => number | null) => Float64Array.from(sorted, (r) => pick(r) ?? NaN);
   const s: Snapshot = {
-    version: r.v ?? '0',
+    version,
     n,
-    ids: Int32Array.from(order, (k) => raw[k]),
-    cwl: numbers(r.cwl),
-    fwhm: numbers(r.fwhm),
-    peak: numbers(r.peak),
-    aoi: numbers(r.aoi),
-    verifiedAt: numbers(r.verified),
+    ids: Int32Array.from(sorted, (r) => r.id!),
+    cwl: column((r) => r.cwl),
+    fwhm: column((r) => r.fwhm),
+    peak: column((r) => r.peak),
+    aoi: column((r) => r.aoi),
+    verifiedAt: column((r) => r.verified),
     instrument: new Uint8Array(n),
     contributor: new Int32Array(n),
     contributors: [],
@@ -146,9 +136,9 @@ async function loadSnapshot(): Promise<Snapshot> {
     fine: new Map(),
     used: new Map(),
   };
-  const instruments = texts(r.instrument);
-  const contributors = texts(r.contributor);
-  const lines = texts(r.lines);
+  const instruments = sorted.map((r) => r.instrument);
+  const contributors = sorted.map((r) => r.contributor);
+  const lines = sorted.map((r) => r.lines);
   const who = new Map<string, number>();
   const sets = new Map<string, number>();
   for (let i = 0; i < n; i++) {
@@ -222,41 +212,60 @@ function rowIndex(s: Snapshot): (id: number) => number {
   };
 }
 
-function meansInto(out: Uint16Array, at: number, sums: string): void {
-  const parts = sums.split(',');
-  for (let j = 0; j < INTERVALS; j++) out[at + j] = Number(parts[j + 1]) - Number(parts[j]);
+/** Reads comma-separated integers into `out` from `outAt` without splitting the text into strings first; returns how many. */
+export function readIntegerList(text: string, out: Int32Array, outAt = 0): number {
+  let k = outAt;
+  let value = 0;
+  let negative = false;
+  let inNumber = false;
+  for (let p = 0; p <= text.length; p++) {
+    const c = p < text.length ? text.charCodeAt(p) : 44;
+    if (c >= 48 && c <= 57) {
+      value = value * 10 + (c - 48);
+      inNumber = true;
+    } else if (c === 45 && !inNumber) negative = true;
+    else if (c === 44) {
+      if (!inNumber) throw new Error(`an empty number at character ${p}`);
+      out[k++] = negative ? -value : value;
+      value = 0;
+      negative = false;
+      inNumber = false;
+    } else throw new Error(`"${String.fromCharCode(c)}" at character ${p} in a list of integers`);
+  }
+  return k - outAt;
 }
 
+type BlockRow = { v: string; id: number | null; neff: number; sums: string; canonical: string | null };
+
+// Grid rows of curves outside the copy (superseded ones keep theirs) are skipped: the copy and the
+// rows are read at the same version, so such a curve is not verified in this state of the library.
 async function loadBlock(s: Snapshot, lineId: string, level: number): Promise<GridBlock> {
-  const rows = await db().sequelize.query<{ v: string; id: number; n: number; d: string; k: string | null }>(
-    `SELECT (SELECT version::text FROM catalogue_version) AS v, f.curve_id AS id, f.n_eff_default AS n,
-            array_to_string(f.direct, ',') AS d, array_to_string(f.canonical, ',') AS k
-     FROM curve_fitness f JOIN curves c ON c.id = f.curve_id AND c.status = 'verified'
-     WHERE f.line_id = $1 AND f.level = $2`,
+  const rows = await db().sequelize.query<BlockRow>(
+    `SELECT k.version::text AS v, f.curve_id AS id, f.n_eff_default AS neff,
+            array_to_string(f.direct, ',') AS sums, array_to_string(f.canonical, ',') AS canonical
+     FROM catalogue_version k LEFT JOIN curve_fitness f ON f.line_id = $1 AND f.level = $2`,
     { bind: [lineId, level], type: QueryTypes.SELECT },
   );
-  if (rows.length > 0 && rows[0].v !== s.version) throw new StaleCopy();
+  if ((rows[0]?.v ?? '0') !== s.version) throw new StaleCopy();
   const find = rowIndex(s);
-  const m = rows.length;
+  const kept = rows.filter((r) => r.id !== null && find(r.id) >= 0);
+  const m = kept.length;
   const rowOf = new Int32Array(s.n).fill(-1);
   const members = new Int32Array(m);
-  const direct = new Uint16Array(m * INTERVALS);
+  const direct = new Int32Array(m * LEVEL_LENGTH);
   const canonRow = new Int32Array(m).fill(-1);
   const nEffDefault = new Float64Array(m);
-  const withCanon = rows.filter((r) => r.k).length;
-  const canonical = new Uint16Array(withCanon * INTERVALS);
+  const canonical = new Int32Array(kept.filter((r) => r.canonical).length * LEVEL_LENGTH);
   let c = 0;
-  rows.forEach((r, j) => {
-    const i = find(r.id);
-    if (i < 0) throw new StaleCopy();
+  kept.forEach((r, j) => {
+    const i = find(r.id!);
     rowOf[i] = j;
     members[j] = i;
-    nEffDefault[j] = r.n;
-    meansInto(direct, j * INTERVALS, r.d);
-    if (r.k) {
-      canonRow[j] = c;
-      meansInto(canonical, c * INTERVALS, r.k);
-      c++;
+    nEffDefault[j] = r.neff;
+    if (readIntegerList(r.sums, direct, j * LEVEL_LENGTH) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a fitness level of the wrong length`);
+    if (r.canonical) {
+      if (readIntegerList(r.canonical, canonical, c * LEVEL_LENGTH) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a canonical level of the wrong length`);
+      canonRow[j] = c++;
     }
   });
   const bytes = rowOf.byteLength + members.byteLength + direct.byteLength + canonRow.byteLength + canonical.byteLength + nEffDefault.byteLength;
@@ -264,23 +273,20 @@ async function loadBlock(s: Snapshot, lineId: string, level: number): Promise<Gr
 }
 
 async function loadFine(s: Snapshot, lineId: string): Promise<FineBlock> {
-  const rows = await db().sequelize.query<{ v: string; id: number; g: string }>(
-    `SELECT (SELECT version::text FROM catalogue_version) AS v, g.curve_id AS id, array_to_string(g.fine, ',') AS g
-     FROM curve_fitness_fine g JOIN curves c ON c.id = g.curve_id AND c.status = 'verified'
-     WHERE g.line_id = $1`,
+  const rows = await db().sequelize.query<BlockRow>(
+    `SELECT k.version::text AS v, g.curve_id AS id, array_to_string(g.fine, ',') AS sums
+     FROM catalogue_version k LEFT JOIN curve_fitness_fine g ON g.line_id = $1`,
     { bind: [lineId], type: QueryTypes.SELECT },
   );
-  if (rows.length > 0 && rows[0].v !== s.version) throw new StaleCopy();
+  if ((rows[0]?.v ?? '0') !== s.version) throw new StaleCopy();
   const find = rowIndex(s);
+  const kept = rows.filter((r) => r.id !== null && find(r.id) >= 0);
   const width = FINE_INTERVALS + 1;
   const rowOf = new Int32Array(s.n).fill(-1);
-  const sums = new Int32Array(rows.length * width);
-  rows.forEach((r, j) => {
-    const i = find(r.id);
-    if (i < 0) throw new StaleCopy();
-    rowOf[i] = j;
-    const parts = r.g.split(',');
-    for (let k = 0; k < width; k++) sums[j * width + k] = Number(parts[k]);
+  const sums = new Int32Array(kept.length * width);
+  kept.forEach((r, j) => {
+    rowOf[find(r.id!)] = j;
+    if (readIntegerList(r.sums, sums, j * width) !== width) throw new Error(`curve ${r.id}: a fine level of the wrong length`);
   });
   return { rowOf, sums, bytes: rowOf.byteLength + sums.byteLength };
 }

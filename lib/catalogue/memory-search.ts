@@ -13,7 +13,7 @@ import { lineThroughput } from '@/lib/engine/cone';
 import { findLine } from '@/lib/engine/lines';
 import type { Pupil } from '@/lib/engine/pupil';
 import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
-import { FINE_INTERVALS, INTERVALS, SCALE, applyOffNormal, offNormalCoefficients, offNormalThroughput, type OffNormalCoefficients, type Weights } from './fitness-grid';
+import { FINE_INTERVALS, LEVEL_LENGTH, SCALE, applyOffNormal, offNormalCoefficients, offNormalThroughput, type OffNormalCoefficients, type Weights } from './fitness-grid';
 import { binaryArraySql, readFloat8Array } from './binary-array';
 import { catalogueCopy, dropCatalogueCopy, fineBlock, gridBlock, StaleCopy, type FineBlock, type GridBlock, type Snapshot } from './memory-index';
 import { hasFitness, type SearchParams, type Sort } from './search-params';
@@ -29,20 +29,9 @@ export function answeredInMemory(actor: Actor | null, p: SearchParams): p is Sea
 /** Off-normal curves at one AOI computed one by one before their shared coefficients are worked out (about a slice's width of work). */
 const SHARED_AOI_ROWS = 24;
 
-/** Per-interval coefficients of the weighted sum: τ·SCALE = Σ_j coef[j]·mean[j] (the runs of `w`, un-regrouped). */
-function coefficients(w: Weights): { coef: Float64Array; first: number; last: number } {
-  const coef = new Float64Array(INTERVALS);
-  // a term on running sum S[k] (1-based SQL index k + 1) counts every interval below k
-  for (const t of w.terms) for (let j = 0; j < t.index - 1 && j < INTERVALS; j++) coef[j] += t.weight;
-  let first = INTERVALS;
-  let last = -1;
-  for (let j = 0; j < INTERVALS; j++) {
-    if (Math.abs(coef[j]) > 1e-15) {
-      if (first === INTERVALS) first = j;
-      last = j;
-    }
-  }
-  return { coef, first, last };
+/** The weighted sum's terms as typed arrays: τ·SCALE = Σ weight·S[offset], S a level's running sums. */
+function termsOf(w: Weights): { at: Int32Array; weight: Float64Array } {
+  return { at: Int32Array.from(w.terms, (t) => t.index - 1), weight: Float64Array.from(w.terms, (t) => t.weight) };
 }
 
 interface Ordered {
@@ -98,7 +87,8 @@ async function run(s: Snapshot, p: SearchParams & { fNumber: number }, w: Weight
         if (p.nEff !== undefined) fines[li] = await fineBlock(s, LINE_IDS[li]);
       }),
     );
-    const { coef, first, last } = coefficients(w);
+    const { at: termAt, weight } = termsOf(w);
+    const terms = termAt.length;
     const canonicalFrame = w.frame === 'canonical-or-direct';
     const fineWidth = FINE_INTERVALS + 1;
     const named = p.nEff;
@@ -123,13 +113,13 @@ async function run(s: Snapshot, p: SearchParams & { fNumber: number }, w: Weight
         return;
       }
       let arr = b.direct;
-      let at = row * INTERVALS;
+      let base = row * LEVEL_LENGTH;
       if (canonicalFrame && b.canonRow[row] >= 0) {
         arr = b.canonical;
-        at = b.canonRow[row] * INTERVALS;
+        base = b.canonRow[row] * LEVEL_LENGTH;
       }
       let sum = 0;
-      for (let j = first; j <= last; j++) sum += coef[j] * arr[at + j];
+      for (let k = 0; k < terms; k++) sum += weight[k] * arr[base + termAt[k]];
       t[i] = sum / SCALE;
     };
     if (p.line) {
