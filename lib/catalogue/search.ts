@@ -286,19 +286,20 @@ export async function buildSearchSql(actor: Actor | null, p: SearchParams): Prom
   const headline = b.query
     ? `ts_headline('english', concat_ws(' · ', c.notes, c.lab, c.serial), ${b.query}, ${ps.param(`StartSel=${MARK_START}, StopSel=${MARK_END}, MaxWords=24, MinWords=8, MaxFragments=2, FragmentDelimiter=" … "`)})`
     : 'NULL';
-  // Ranking reads every matching tsvector; a word shared by a third of the library would rank
-  // tens of thousands, so relevance orders the RANK_CANDIDATES newest matches (or as many as the page needs).
+  // Relevance orders the RANK_CANDIDATES newest matches (or as many as the page needs): a word shared by
+  // a third of the library would otherwise sort tens of thousands. The rank is taken while each match is
+  // read anyway, so the sort that picks the newest carries narrow rows, never the tsvectors.
   const ranked = sort === 'relevance' && b.rank;
   const candidates = Math.max(RANK_CANDIDATES, page * pageSize);
   const source = ranked
-    ? `(SELECT c.id, c.search, c.verified_at, ${b.tau ?? 'NULL::float8'} AS tau FROM curves c ${b.joins} WHERE ${where}
+    ? `(SELECT c.id, c.verified_at, ${b.rank} AS rank, ${b.tau ?? 'NULL::float8'} AS tau FROM curves c ${b.joins} WHERE ${where}
         ORDER BY c.verified_at DESC NULLS LAST, c.id DESC LIMIT ${candidates}) c`
     : `curves c ${b.joins} WHERE ${where}`;
   const pageSql = `
     WITH hit AS (
       SELECT h.id, h.tau, row_number() OVER () AS ord
       FROM (SELECT c.id, ${ranked ? 'c.tau' : (b.tau ?? 'NULL::float8')} AS tau FROM ${source}
-            ORDER BY ${orderBy(sort, dir, b)} LIMIT ${ps.param(pageSize)} OFFSET ${ps.param((page - 1) * pageSize)}) h
+            ORDER BY ${orderBy(sort, dir, ranked ? { ...b, rank: 'c.rank' } : b)} LIMIT ${ps.param(pageSize)} OFFSET ${ps.param((page - 1) * pageSize)}) h
     )
     SELECT ${PAGE_COLUMNS}, hit.tau, ${headline} AS snippet, sp.wavelength_nm AS spark_w, sp.transmission AS spark_t
     FROM hit JOIN curves c ON c.id = hit.id LEFT JOIN curve_sparklines sp ON sp.curve_id = c.id
