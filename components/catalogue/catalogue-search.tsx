@@ -259,7 +259,18 @@ export function CatalogueSearch(props: {
           {showsHa ? <SolarCaution compact /> : null}
         </section>
       </div>
-      <CompareTray />
+      <CompareTray
+        optic={
+          fitness
+            ? {
+                fNumber: Number(query.fNumber),
+                obstruction: Number(query.obstruction ?? 0),
+                fieldAngleDeg: Number(query.fieldAngleDeg ?? 0),
+                ...(query.nEff ? { nEff: Number(query.nEff) } : {}),
+              }
+            : null
+        }
+      />
     </div>
   );
 }

@@ -1,10 +1,11 @@
 'use client';
 
 import Link from 'next/link';
+import type { CompareOptic } from '@/lib/catalogue/compare';
 import { MAX_COMPARE, compareHref, useCompareBoard } from './compare-board';
 
 /** A bar that follows the reader down the results: what is on the compare board, and the way there. */
-export function CompareTray() {
+export function CompareTray({ optic }: { optic?: CompareOptic | null }) {
   const { ids, clear } = useCompareBoard();
   if (ids.length === 0) return null;
   return (
@@ -12,7 +13,7 @@ export function CompareTray() {
       <span>
         <strong className="figures">{ids.length}</strong> of {MAX_COMPARE} curves on the compare board
       </span>
-      <Link href={compareHref(ids)} className="rounded-card bg-accent px-3 py-1 text-accent-ink" data-testid="open-compare">
+      <Link href={compareHref(ids, optic)} className="rounded-card bg-accent px-3 py-1 text-accent-ink" data-testid="open-compare">
         Open compare board
       </Link>
       <button type="button" onClick={clear} className="text-muted underline-offset-4 hover:underline">

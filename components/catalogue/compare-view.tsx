@@ -10,6 +10,7 @@ import { formatDeg, formatFNumber, formatNm, formatRatio, formatTransmission, fi
 import { LINES } from '@/lib/engine/lines';
 import { DEFAULT_N_EFF } from '@/lib/catalogue/fitness-grid';
 import { useCompareBoard, compareHref } from './compare-board';
+import type { CompareOptic } from '@/lib/catalogue/compare';
 import { INSTRUMENT_NAMES, lineName } from './labels';
 import { SolarCaution, ModelCaution } from './solar-caution';
 import type { OpticChoice } from './types';
@@ -37,14 +38,28 @@ export interface CompareCurve {
 
 type Throughput = { id: string; throughput: number; speedEquivalentFNumber: number | null };
 
-export function CompareView(props: { curves: CompareCurve[]; missing: number[]; optics: OpticChoice[] }) {
+function describeOptic(o: CompareOptic): string {
+  const parts = [`f/${o.fNumber.toFixed(1)}`, o.obstruction.toFixed(2)];
+  if (o.fieldAngleDeg) parts.push(`${o.fieldAngleDeg}° off axis`);
+  if (o.nEff !== undefined) parts.push(`n_eff ${o.nEff}`);
+  return parts.join(', ');
+}
+
+/** The choice standing for the optic the catalogue search used (from the board's address). */
+const FROM_SEARCH = 'search';
+
+export function CompareView(props: { curves: CompareCurve[]; missing: number[]; optics: OpticChoice[]; searchOptic?: CompareOptic | null }) {
   const router = useRouter();
   const board = useCompareBoard();
   const theme = useChartTheme();
   const ids = props.curves.map((c) => c.id);
-  const [opticId, setOpticId] = useState(props.optics[0] ? String(props.optics[0].id) : '');
+  const [opticId, setOpticId] = useState(props.searchOptic ? FROM_SEARCH : props.optics[0] ? String(props.optics[0].id) : '');
   const [results, setResults] = useState<{ key: string; byCurve: Record<number, Throughput[] | string> } | null>(null);
-  const optic = props.optics.find((o) => String(o.id) === opticId);
+  const optic: (CompareOptic & { fieldAngleDeg: number }) | undefined =
+    opticId === FROM_SEARCH && props.searchOptic
+      ? { ...props.searchOptic, fieldAngleDeg: props.searchOptic.fieldAngleDeg ?? 0 }
+      : props.optics.find((o) => String(o.id) === opticId);
+  const namedNEff = opticId === FROM_SEARCH ? props.searchOptic?.nEff : undefined;
   const key = `${opticId}|${ids.join(',')}`;
 
   // the URL is the selection; the board in this browser follows it
@@ -64,7 +79,7 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
           body: JSON.stringify({
             curveId: c.id,
             optic: { fNumber: optic.fNumber, obstruction: optic.obstruction, fieldAngleDeg: optic.fieldAngleDeg },
-            nEff: c.nEff ?? DEFAULT_N_EFF,
+            nEff: namedNEff ?? c.nEff ?? DEFAULT_N_EFF,
             lines: c.lines.length ? c.lines : undefined,
           }),
         });
@@ -88,7 +103,7 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
     return LINES.filter((l) => wanted.has(l.id)).map((l) => ({ id: l.id, name: l.name, nm: l.airNm }));
   }, [props.curves]);
 
-  const remove = (id: number) => router.push(compareHref(ids.filter((x) => x !== id)));
+  const remove = (id: number) => router.push(compareHref(ids.filter((x) => x !== id), props.searchOptic));
   const current = results?.key === key ? results.byCurve : null;
 
   if (props.curves.length === 0) {
@@ -135,6 +150,7 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
           <label className="flex items-center gap-2">
             <span className="text-muted">Line throughput on</span>
             <select value={opticId} onChange={(e) => setOpticId(e.target.value)} className="max-w-[20rem] rounded-card border border-rule bg-panel px-2 py-1" data-testid="compare-optic">
+              {props.searchOptic ? <option value={FROM_SEARCH}>{`From your search · ${describeOptic(props.searchOptic)}`}</option> : null}
               {props.optics.map((o) => (
                 <option key={o.id} value={o.id}>{`${o.mine ? 'Mine: ' : ''}${o.name} · f/${o.fNumber.toFixed(1)}, ${o.obstruction.toFixed(2)}`}</option>
               ))}

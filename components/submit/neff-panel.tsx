@@ -1,7 +1,8 @@
 'use client';
 
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { fixed, formatNm } from '@/components/charts/format';
+import { XYChart, type XYSeries } from '@/components/charts/xy-chart';
 import { predictCwl } from '@/lib/engine/neff';
 import { fitNeff, type NeffFit } from './preview-api';
 
@@ -33,6 +34,18 @@ export function NeffPanel({ points }: { points: AngleCwl[] }) {
   const fit = outcome?.fit;
   const error = busy ? undefined : outcome?.error;
 
+  // the measured CWLs against AOI, and the fitted curve drawn smoothly across and a little beyond them
+  const series: XYSeries[] = useMemo(() => {
+    if (!fit) return [];
+    const sorted = [...points].sort((a, b) => a.aoiDeg - b.aoiDeg);
+    const top = Math.min(60, Math.max(...sorted.map((p) => p.aoiDeg)) + 5);
+    const xs = Array.from({ length: 61 }, (_, k) => (top * k) / 60);
+    return [
+      { name: 'Measured CWL', x: sorted.map((p) => p.aoiDeg), y: sorted.map((p) => p.cwlNm), type: 'scatter', colorIndex: 0, pointLabels: sorted.map((p) => p.name) },
+      { name: `Fit, n_eff ${fixed(fit.nEff, 3)}`, x: xs, y: xs.map((a) => predictCwl(fit.cwl0Nm, fit.nEff, a)), dashed: true, colorIndex: 0 },
+    ];
+  }, [fit, points]);
+
   return (
     <section aria-labelledby="neff-heading" className="space-y-2 rounded-card border border-rule bg-panel p-4" data-testid="neff-panel">
       <h3 id="neff-heading" className="font-semibold">Effective index of the set</h3>
@@ -48,6 +61,18 @@ export function NeffPanel({ points }: { points: AngleCwl[] }) {
             <span className="mx-2 text-muted">·</span>RMS residual <span className="figures">{formatNm(fit.rmsResidualNm, 3)}</span>
             {busy ? <span className="ml-2 text-xs text-muted">refitting…</span> : null}
           </p>
+          <XYChart
+            title="CWL against angle of incidence"
+            series={series}
+            xName="AOI (°)"
+            yName="CWL (nm)"
+            xFormat="deg"
+            yFormat="nm"
+            xMin={0}
+            height={260}
+            fileName="bandcone-neff-fit"
+            titleAs="h4"
+          />
           <table className="w-full max-w-xl text-sm">
             <caption className="sr-only">Measured and fitted CWL per file</caption>
             <thead>

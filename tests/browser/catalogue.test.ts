@@ -102,6 +102,9 @@ describe('the catalogue in a browser', () => {
     await settled(page, /sort=throughput/);
     expect(await rows(page)).toBeGreaterThanOrEqual(3);
     const boxes = page.locator('[data-testid="results"] tbody input[type="checkbox"]');
+    // the exact throughput the search showed for the first result, which the board must repeat for the same optic
+    const firstTau = (await page.getByTestId('throughput').first().textContent())!.trim();
+    expect(firstTau).toMatch(/\d+\.\d %/);
     const picked: number[] = [];
     for (let k = 0; k < 3; k++) {
       await boxes.nth(k).check();
@@ -112,7 +115,11 @@ describe('the catalogue in a browser', () => {
     await page.waitForURL(/\/compare\?curves=/);
     expect(new URL(page.url()).searchParams.get('curves')).toBe(picked.join(','));
     await expect.poll(() => page.locator('[data-testid="compare-table"] thead th').count()).toBe(4);
-    await expect.poll(() => page.getByTestId(`compare-throughput-${picked[0]}`).textContent(), { timeout: 20_000 }).toMatch(/\d+\.\d %/);
+    // the board starts on the optic of the search it came from
+    expect(new URL(page.url()).searchParams.get('fNumber')).toBe(String(astrograph.f_number));
+    expect(await page.getByTestId('compare-optic').inputValue()).toBe('search');
+    expect(await page.locator('[data-testid="compare-optic"] option:checked').textContent()).toContain(`f/${astrograph.f_number.toFixed(1)}, ${astrograph.obstruction.toFixed(2)}`);
+    await expect.poll(() => page.getByTestId(`compare-throughput-${picked[0]}`).textContent(), { timeout: 20_000 }).toContain(firstTau);
     await screenshot(page, 'catalogue-compare-1440');
 
     // the same pages on a phone

@@ -89,6 +89,10 @@ describe('a curve set from the bench to the public library', () => {
     await page.waitForFunction(() => !!document.querySelector('[data-testid=neff-value]'));
     const nEff = Number(await page.getByTestId('neff-value').textContent());
     expect(nEff).toBeCloseTo(N_EFF, 1);
+    // the fit is drawn: the measured CWLs and the fitted curve over the angles
+    const fitChart = page.getByTestId('neff-panel').locator('figure').filter({ hasText: 'CWL against angle of incidence' });
+    await expect(fitChart.locator('canvas').count()).resolves.toBeGreaterThan(0);
+    await expect(fitChart.textContent()).resolves.toContain(`Fit, n_eff ${nEff.toFixed(3)}`);
     const chart = page.locator('figure').filter({ hasText: 'Preview of' }).first();
     await expect(chart.locator('canvas').count()).resolves.toBeGreaterThan(0);
 

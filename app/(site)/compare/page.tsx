@@ -6,14 +6,16 @@ import { readableWhere } from '@/lib/catalogue/points';
 import { opticChoices } from '@/lib/catalogue/optic-choices';
 import { curveTitle } from '@/lib/catalogue/detail';
 import { CompareView, type CompareCurve } from '@/components/catalogue/compare-view';
-import { parseCompareIds } from '@/lib/catalogue/compare';
+import { parseCompareIds, parseCompareOptic } from '@/lib/catalogue/compare';
 
 export const metadata: Metadata = { title: 'Compare board' };
 
 type Props = { searchParams: Promise<Record<string, string | string[] | undefined>> };
 
 export default async function ComparePage({ searchParams }: Props) {
-  const ids = parseCompareIds((await searchParams).curves);
+  const raw = await searchParams;
+  const ids = parseCompareIds(raw.curves);
+  const searchOptic = parseCompareOptic(raw);
   const actor = await currentActor().catch(() => null);
   const { Curve, User } = db();
   const rows = ids.length
@@ -50,7 +52,7 @@ export default async function ComparePage({ searchParams }: Props) {
   const optics = await opticChoices(actor);
   return (
     <Suspense>
-      <CompareView curves={curves} missing={missing} optics={optics} />
+      <CompareView curves={curves} missing={missing} optics={optics} searchOptic={searchOptic} />
     </Suspense>
   );
 }
