@@ -237,58 +237,111 @@ export function readIntegerList(text: string, out: Int32Array, outAt = 0): numbe
 
 type BlockRow = { v: string; id: number | null; neff: number; sums: string; canonical: string | null };
 
-// Grid rows of curves outside the copy (superseded ones keep theirs) are skipped: the copy and the
-// rows are read at the same version, so such a curve is not verified in this state of the library.
-async function loadBlock(s: Snapshot, lineId: string, level: number): Promise<GridBlock> {
-  const rows = await db().sequelize.query<BlockRow>(
-    `SELECT k.version::text AS v, f.curve_id AS id, f.n_eff_default AS neff,
-            array_to_string(f.direct, ',') AS sums, array_to_string(f.canonical, ',') AS canonical
-     FROM catalogue_version k LEFT JOIN curve_fitness f ON f.line_id = $1 AND f.level = $2`,
-    { bind: [lineId, level], type: QueryTypes.SELECT },
-  );
-  if ((rows[0]?.v ?? '0') !== s.version) throw new StaleCopy();
+/** Rows per read of a block: small enough that reading one never holds much more than the block itself (settable for tests). */
+const chunkRows = () => Math.max(1, Number(process.env.BANDCONE_COPY_CHUNK ?? 4000));
+
+/**
+ * Reads the rows of one line (and level) in curve-id order, CHUNK at a time through the table's
+ * key, handing over those of curves in the copy. Every read carries the catalogue version (the
+ * LEFT JOIN LATERAL answers it even when no rows are left), so a change between two reads is seen.
+ * Grid rows of curves outside the copy (superseded ones keep theirs) are skipped: the copy and the
+ * rows are read at the same version, so such a curve is not verified in this state of the library.
+ */
+async function readRows(s: Snapshot, table: 'curve_fitness' | 'curve_fitness_fine', columns: string, where: string, bind: unknown[], onRow: (r: BlockRow, i: number) => void) {
   const find = rowIndex(s);
-  const kept = rows.filter((r) => r.id !== null && find(r.id) >= 0);
-  const m = kept.length;
+  const CHUNK = chunkRows();
+  for (let after = 0; ; ) {
+    const rows = await db().sequelize.query<BlockRow>(
+      `SELECT k.version::text AS v, f.* FROM catalogue_version k LEFT JOIN LATERAL (
+         SELECT curve_id AS id, ${columns} FROM ${table} WHERE ${where} AND curve_id > $${bind.length + 1} ORDER BY curve_id LIMIT ${CHUNK}
+       ) f ON true`,
+      { bind: [...bind, after], type: QueryTypes.SELECT },
+    );
+    if ((rows[0]?.v ?? '0') !== s.version) throw new StaleCopy();
+    let real = 0;
+    for (const r of rows) {
+      if (r.id === null) continue;
+      real++;
+      after = r.id;
+      const i = find(r.id);
+      if (i >= 0) onRow(r, i);
+    }
+    if (real < CHUNK) return;
+  }
+}
+
+/** Growing typed storage for rows of a fixed width, copied once into place at the end. */
+function rowsOf(width: number) {
+  const CHUNK = chunkRows();
+  const parts: Int32Array[] = [];
+  let part = new Int32Array(CHUNK * width);
+  let used = 0;
+  let count = 0;
+  return {
+    next(): { arr: Int32Array; at: number } {
+      if (used === CHUNK) {
+        parts.push(part);
+        part = new Int32Array(CHUNK * width);
+        used = 0;
+      }
+      count++;
+      return { arr: part, at: used++ * width };
+    },
+    done(): Int32Array {
+      const out = new Int32Array(count * width);
+      parts.forEach((p, k) => out.set(p, k * CHUNK * width));
+      out.set(part.subarray(0, used * width), parts.length * CHUNK * width);
+      return out;
+    },
+  };
+}
+
+async function loadBlock(s: Snapshot, lineId: string, level: number): Promise<GridBlock> {
   const rowOf = new Int32Array(s.n).fill(-1);
-  const members = new Int32Array(m);
-  const direct = new Int32Array(m * LEVEL_LENGTH);
-  const canonRow = new Int32Array(m).fill(-1);
-  const nEffDefault = new Float64Array(m);
-  const canonical = new Int32Array(kept.filter((r) => r.canonical).length * LEVEL_LENGTH);
-  let c = 0;
-  kept.forEach((r, j) => {
-    const i = find(r.id!);
-    rowOf[i] = j;
-    members[j] = i;
-    nEffDefault[j] = r.neff;
-    if (readIntegerList(r.sums, direct, j * LEVEL_LENGTH) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a fitness level of the wrong length`);
+  const members: number[] = [];
+  const neff: number[] = [];
+  const canonOf: number[] = [];
+  const direct = rowsOf(LEVEL_LENGTH);
+  const canonical = rowsOf(LEVEL_LENGTH);
+  await readRows(s, 'curve_fitness', `n_eff_default AS neff, array_to_string(direct, ',') AS sums, array_to_string(canonical, ',') AS canonical`, 'line_id = $1 AND level = $2', [lineId, level], (r, i) => {
+    rowOf[i] = members.length;
+    members.push(i);
+    neff.push(r.neff);
+    const d = direct.next();
+    if (readIntegerList(r.sums, d.arr, d.at) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a fitness level of the wrong length`);
     if (r.canonical) {
-      if (readIntegerList(r.canonical, canonical, c * LEVEL_LENGTH) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a canonical level of the wrong length`);
-      canonRow[j] = c++;
+      const k = canonical.next();
+      if (readIntegerList(r.canonical, k.arr, k.at) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a canonical level of the wrong length`);
+      canonOf.push(members.length - 1);
     }
   });
-  const bytes = rowOf.byteLength + members.byteLength + direct.byteLength + canonRow.byteLength + canonical.byteLength + nEffDefault.byteLength;
-  return { rowOf, members, direct, canonRow, canonical, nEffDefault, bytes };
+  const canonRow = new Int32Array(members.length).fill(-1);
+  canonOf.forEach((row, k) => (canonRow[row] = k));
+  const block = { rowOf, members: Int32Array.from(members), direct: direct.done(), canonRow, canonical: canonical.done(), nEffDefault: Float64Array.from(neff) };
+  const bytes = block.rowOf.byteLength + block.members.byteLength + block.direct.byteLength + canonRow.byteLength + block.canonical.byteLength + block.nEffDefault.byteLength;
+  return { ...block, bytes };
 }
 
 async function loadFine(s: Snapshot, lineId: string): Promise<FineBlock> {
-  const rows = await db().sequelize.query<BlockRow>(
-    `SELECT k.version::text AS v, g.curve_id AS id, array_to_string(g.fine, ',') AS sums
-     FROM catalogue_version k LEFT JOIN curve_fitness_fine g ON g.line_id = $1`,
-    { bind: [lineId], type: QueryTypes.SELECT },
-  );
-  if ((rows[0]?.v ?? '0') !== s.version) throw new StaleCopy();
-  const find = rowIndex(s);
-  const kept = rows.filter((r) => r.id !== null && find(r.id) >= 0);
   const width = FINE_INTERVALS + 1;
   const rowOf = new Int32Array(s.n).fill(-1);
-  const sums = new Int32Array(kept.length * width);
-  kept.forEach((r, j) => {
-    rowOf[find(r.id!)] = j;
-    if (readIntegerList(r.sums, sums, j * width) !== width) throw new Error(`curve ${r.id}: a fine level of the wrong length`);
+  const sums = rowsOf(width);
+  let count = 0;
+  await readRows(s, 'curve_fitness_fine', `array_to_string(fine, ',') AS sums`, 'line_id = $1', [lineId], (r, i) => {
+    rowOf[i] = count++;
+    const d = sums.next();
+    if (readIntegerList(r.sums, d.arr, d.at) !== width) throw new Error(`curve ${r.id}: a fine level of the wrong length`);
   });
-  return { rowOf, sums, bytes: rowOf.byteLength + sums.byteLength };
+  const all = sums.done();
+  return { rowOf, sums: all, bytes: rowOf.byteLength + all.byteLength };
+}
+
+/** One block read at a time, so readers arriving together do not all hold their rows in flight at once. */
+let reading: Promise<unknown> = Promise.resolve();
+function oneAtATime<T>(load: () => Promise<T>): Promise<T> {
+  const next = reading.then(load, load);
+  reading = next.catch(() => undefined);
+  return next;
 }
 
 function cached<T extends { bytes: number }>(s: Snapshot, map: Map<string, Promise<T>>, key: string, load: () => Promise<T>): Promise<T> {
@@ -306,10 +359,10 @@ function cached<T extends { bytes: number }>(s: Snapshot, map: Map<string, Promi
 /** The grid of one line at one level (LEVEL_STEPS), loaded on first use. */
 export function gridBlock(s: Snapshot, lineId: string, level: number): Promise<GridBlock> {
   if (level < 0 || level >= LEVEL_STEPS.length) throw new Error(`no fitness level ${level}`);
-  return cached(s, s.blocks, `${lineId}|${level}`, () => loadBlock(s, lineId, level));
+  return cached(s, s.blocks, `${lineId}|${level}`, () => oneAtATime(() => loadBlock(s, lineId, level)));
 }
 
 /** The fine level of one line's off-normal curves, loaded on first use. */
 export function fineBlock(s: Snapshot, lineId: string): Promise<FineBlock> {
-  return cached(s, s.fine, `fine|${lineId}`, () => loadFine(s, lineId));
+  return cached(s, s.fine, `fine|${lineId}`, () => oneAtATime(() => loadFine(s, lineId)));
 }

@@ -4,7 +4,7 @@ import { closeSequelize, getSequelize } from '@/db/connection';
 import { searchCurves, type SearchResult } from '@/lib/catalogue/search';
 import { parseSearchParams } from '@/lib/catalogue/search-params';
 import { answeredInMemory } from '@/lib/catalogue/memory-search';
-import { catalogueCopy, currentVersion } from '@/lib/catalogue/memory-index';
+import { catalogueCopy, currentVersion, dropCatalogueCopy } from '@/lib/catalogue/memory-index';
 import type { Actor } from '@/lib/auth/actor';
 import { binaryArraySql, readFloat8Array } from '@/lib/catalogue/binary-array';
 
@@ -48,6 +48,20 @@ describe('the in-process copy answers fitness searches exactly as the SQL does',
     }
     // the comparison means something only if most searches find curves
     expect(nonEmpty).toBeGreaterThanOrEqual(SEARCHES.length - 2);
+  });
+
+  it('the same when the grid is read a few rows at a time', async () => {
+    process.env.BANDCONE_COPY_CHUNK = '7';
+    dropCatalogueCopy();
+    try {
+      for (const qs of [SEARCHES[0], SEARCHES[4], SEARCHES[9], SEARCHES[11]]) {
+        const p = parseSearchParams(new URLSearchParams(qs));
+        expect(seen(await searchCurves(null, p)), qs).toEqual(seen(await searchCurves(null, p, { memory: false })));
+      }
+    } finally {
+      delete process.env.BANDCONE_COPY_CHUNK;
+      dropCatalogueCopy();
+    }
   });
 
   it('a moderator asking for verified curves is answered from the copy too; other statuses and words go to SQL', async () => {
