@@ -8,7 +8,7 @@
 
 import { QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
-import type { Actor } from '@/lib/auth/actor';
+import { hasRole, type Actor } from '@/lib/auth/actor';
 import { lineThroughput } from '@/lib/engine/cone';
 import { findLine } from '@/lib/engine/lines';
 import type { Pupil } from '@/lib/engine/pupil';
@@ -20,10 +20,21 @@ import { hasFitness, type SearchParams, type Sort } from './search-params';
 
 export type CountGroup = { instrument: string; bucket: number | null; lines: string[]; pf: boolean; n: string };
 
-/** Searches the copy can answer: an optic, no words, and a reader who sees verified curves only. */
-export function answeredInMemory(actor: Actor | null, p: SearchParams): p is SearchParams & { fNumber: number } {
+/**
+ * Searches the copy can answer: an optic, no words, and a reader who sees verified curves only,
+ * which is every visitor, anyone asking for status=verified, and a contributor with no curve of
+ * their own awaiting a decision or turned down (their search would show those too, search.ts).
+ */
+export async function answeredInMemory(actor: Actor | null, p: SearchParams): Promise<boolean> {
   if (!hasFitness(p) || p.q) return false;
-  return actor ? p.status === 'verified' : p.status === undefined || p.status === 'verified';
+  if (p.status === 'verified') return true;
+  if (!actor) return p.status === undefined;
+  if (hasRole(actor, 'moderator') || p.status !== undefined) return false;
+  const own = await db().sequelize.query(
+    `SELECT 1 FROM curves WHERE contributor_id = $1::uuid AND status IN ('submitted', 'changes_requested', 'rejected') LIMIT 1`,
+    { bind: [actor.id], type: QueryTypes.SELECT },
+  );
+  return own.length === 0;
 }
 
 /** Off-normal curves at one AOI computed one by one before their shared coefficients are worked out (about a slice's width of work). */

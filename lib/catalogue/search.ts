@@ -350,7 +350,7 @@ export interface SearchOptions {
 }
 
 export async function searchCurves(actor: Actor | null, p: SearchParams, options: SearchOptions = {}): Promise<SearchResult> {
-  if (options.memory !== false && answeredInMemory(actor, p)) return searchCopy(actor, p);
+  if (options.memory !== false && hasFitness(p) && (await answeredInMemory(actor, p))) return searchCopy(actor, p);
   const { plan: pl, sort, dir, page, pageSize, pageSql, pageBind, facetSql, facetBind } = await buildSearchSql(actor, p);
   const { sequelize } = db();
   const [rows, groups] = await Promise.all([

@@ -40,7 +40,7 @@ describe('the in-process copy answers fitness searches exactly as the SQL does',
     let nonEmpty = 0;
     for (const qs of SEARCHES) {
       const p = parseSearchParams(new URLSearchParams(qs));
-      expect(answeredInMemory(null, p), qs).toBe(true);
+      expect(await answeredInMemory(null, p), qs).toBe(true);
       const fromSql = await searchCurves(null, p, { memory: false });
       const fromCopy = await searchCurves(null, p);
       expect(seen(fromCopy), qs).toEqual(seen(fromSql));
@@ -64,13 +64,32 @@ describe('the in-process copy answers fitness searches exactly as the SQL does',
     }
   });
 
-  it('a moderator asking for verified curves is answered from the copy too; other statuses and words go to SQL', async () => {
+  it('a moderator asking for verified curves, and a contributor with nothing pending, are answered from the copy; other readers and words go to SQL', async () => {
     const p = parseSearchParams(new URLSearchParams('line=Ha&fNumber=2&minThroughput=0.5&status=verified'));
-    expect(answeredInMemory(moderator, p)).toBe(true);
+    expect(await answeredInMemory(moderator, p)).toBe(true);
     expect(seen(await searchCurves(moderator, p))).toEqual(seen(await searchCurves(moderator, p, { memory: false })));
-    expect(answeredInMemory(moderator, parseSearchParams(new URLSearchParams('fNumber=2')))).toBe(false);
-    expect(answeredInMemory(null, parseSearchParams(new URLSearchParams('fNumber=2&q=meadow')))).toBe(false);
-    expect(answeredInMemory(null, parseSearchParams(new URLSearchParams('line=Ha')))).toBe(false);
+
+    // someone whose own curves are all decided sees exactly the verified catalogue
+    const plain = parseSearchParams(new URLSearchParams('line=Ha&fNumber=2&minThroughput=0.5'));
+    const [settled] = await getSequelize().query<{ contributor_id: string }>(
+      `SELECT contributor_id FROM curves GROUP BY 1 HAVING bool_and(status IN ('verified', 'superseded')) LIMIT 1`,
+      { type: QueryTypes.SELECT },
+    );
+    const done: Actor = { ...moderator, id: settled?.contributor_id ?? '00000000-0000-0000-0000-00000000beef', role: 'contributor' };
+    expect(await answeredInMemory(done, plain)).toBe(true);
+    expect(seen(await searchCurves(done, plain))).toEqual(seen(await searchCurves(done, plain, { memory: false })));
+
+    // someone with a curve awaiting review sees it too, which the copy does not hold
+    const [waiting] = await getSequelize().query<{ contributor_id: string }>(
+      `SELECT contributor_id FROM curves WHERE status = 'submitted' LIMIT 1`,
+      { type: QueryTypes.SELECT },
+    );
+    expect(waiting).toBeDefined();
+    expect(await answeredInMemory({ ...done, id: waiting.contributor_id }, plain)).toBe(false);
+
+    expect(await answeredInMemory(moderator, parseSearchParams(new URLSearchParams('fNumber=2')))).toBe(false);
+    expect(await answeredInMemory(null, parseSearchParams(new URLSearchParams('fNumber=2&q=meadow')))).toBe(false);
+    expect(await answeredInMemory(null, parseSearchParams(new URLSearchParams('line=Ha')))).toBe(false);
   });
 });
 
