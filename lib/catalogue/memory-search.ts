@@ -51,15 +51,17 @@ interface Ordered {
   groups: CountGroup[];
 }
 
-export async function searchInMemory(p: SearchParams & { fNumber: number }, weights: Weights, pupil: Pupil, sort: Sort, dir: 'asc' | 'desc', page: number, pageSize: number): Promise<Ordered> {
-  for (let attempt = 0; ; attempt++) {
+/** The answer from the copy, or null when the library kept changing under three reads of it (search.ts then asks SQL). */
+export async function searchInMemory(p: SearchParams & { fNumber: number }, weights: Weights, pupil: Pupil, sort: Sort, dir: 'asc' | 'desc', page: number, pageSize: number): Promise<Ordered | null> {
+  for (let attempt = 0; attempt < 3; attempt++) {
     try {
       return await run(await catalogueCopy(), p, weights, pupil, sort, dir, page, pageSize);
     } catch (e) {
-      if (!(e instanceof StaleCopy) || attempt >= 3) throw e;
+      if (!(e instanceof StaleCopy)) throw e;
       dropCatalogueCopy();
     }
   }
+  return null;
 }
 
 async function run(s: Snapshot, p: SearchParams & { fNumber: number }, w: Weights, pupil: Pupil, sort: Sort, dir: 'asc' | 'desc', page: number, pageSize: number): Promise<Ordered> {

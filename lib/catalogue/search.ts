@@ -350,7 +350,10 @@ export interface SearchOptions {
 }
 
 export async function searchCurves(actor: Actor | null, p: SearchParams, options: SearchOptions = {}): Promise<SearchResult> {
-  if (options.memory !== false && hasFitness(p) && (await answeredInMemory(actor, p))) return searchCopy(actor, p);
+  if (options.memory !== false && hasFitness(p) && (await answeredInMemory(actor, p))) {
+    const fromCopy = await searchCopy(actor, p);
+    if (fromCopy) return fromCopy;
+  }
   const { plan: pl, sort, dir, page, pageSize, pageSql, pageBind, facetSql, facetBind } = await buildSearchSql(actor, p);
   const { sequelize } = db();
   const [rows, groups] = await Promise.all([
@@ -364,10 +367,12 @@ export async function searchCurves(actor: Actor | null, p: SearchParams, options
 }
 
 /** A fitness search over the verified catalogue, from the in-process copy (memory-search.ts); the page's rows from SQL. */
-async function searchCopy(actor: Actor | null, p: SearchParams & { fNumber: number }): Promise<SearchResult> {
+async function searchCopy(actor: Actor | null, p: SearchParams & { fNumber: number }): Promise<SearchResult | null> {
   const o = ordering(p);
   const pl = await plan(actor, p, false);
-  const { ids, taus, groups } = await searchInMemory(p, pl.weights!, pl.pupil!, o.sort, o.dir, o.page, o.pageSize);
+  const answer = await searchInMemory(p, pl.weights!, pl.pupil!, o.sort, o.dir, o.page, o.pageSize);
+  if (!answer) return null;
+  const { ids, taus, groups } = answer;
   const found = ids.length
     ? await db().sequelize.query<PageRow>(
         `SELECT ${PAGE_COLUMNS}, NULL AS snippet, sp.wavelength_nm AS spark_w, sp.transmission AS spark_t
