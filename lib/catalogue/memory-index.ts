@@ -88,7 +88,6 @@ export function widthBucket(x: number): number {
   return k;
 }
 
-
 export async function currentVersion(): Promise<string> {
   const rows = await db().sequelize.query<{ v: string }>(`SELECT version::text AS v FROM catalogue_version`, { type: QueryTypes.SELECT });
   return rows[0]?.v ?? '0';

@@ -269,12 +269,13 @@ export interface SearchSql {
   facetBind: unknown[];
 }
 
-/** The two statements of a search (exported so a test can EXPLAIN exactly what runs). */
+/** The order and page a search asks for, with their defaults. */
 function ordering(p: SearchParams) {
   const sort: Sort = p.sort ?? (p.q ? 'relevance' : 'newest');
   return { sort, dir: p.dir ?? DEFAULT_DIR[sort], page: p.page ?? 1, pageSize: p.pageSize ?? DEFAULT_PAGE_SIZE };
 }
 
+/** The two statements of a search (exported so a test can EXPLAIN exactly what runs). */
 export async function buildSearchSql(actor: Actor | null, p: SearchParams): Promise<SearchSql> {
   const { sort, dir, page, pageSize } = ordering(p);
   const pl = await plan(actor, p);
