@@ -5,7 +5,7 @@ import { useRouter } from 'next/navigation';
 import { useForm, useWatch, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { submissionMetadataSchema, type SubmissionMetadata } from '@/lib/schemas/submission';
-import { buttonClass } from '@/components/forms/field';
+import { buttonClass, inputClass } from '@/components/forms/field';
 import type { ApiFailure } from '@/components/account/json-form';
 import { clearDraft, loadDraft, saveDraft } from './draft';
 import { FileCard, type FileProblem, type PreviewState } from './file-card';
@@ -65,7 +65,8 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
 
   // The resolver sees the files too: their names and AOIs are part of the metadata the schema checks.
   const filesMeta = useMemo<FileMeta[]>(() => {
-    if (files.length === 0 && revise) return mode.currentFiles;
+    // kept files keep their reader settings; their AOIs can be corrected here
+    if (files.length === 0 && revise) return mode.currentFiles.map((f) => ({ ...f, aoiDeg: aoi[f.name] !== undefined ? (asNumber(aoi[f.name]) as number | undefined) : f.aoiDeg }));
     return files.map((f) => ({ name: f.name, aoiDeg: asNumber(aoi[f.name] ?? '') as number | undefined, reader: reader[f.name] }));
   }, [files, aoi, reader, revise, mode]);
   const filesRef = useRef(filesMeta);
@@ -288,9 +289,29 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
         </div>
         <UploadDashboard uppy={uppy} note={filesNote} />
         {revise && files.length === 0 && mode.currentFiles.length > 0 ? (
-          <p className="text-sm text-muted">
-            Keeping the current files: {mode.currentFiles.map((f) => `${f.name} (AOI ${f.aoiDeg}°)`).join(', ')}.
-          </p>
+          <fieldset className="space-y-2 rounded-card border border-rule bg-panel p-4" data-testid="kept-files">
+            <legend className="px-1 text-sm font-medium">Keeping the current files</legend>
+            <p className="text-xs text-muted">If an angle was recorded wrongly, correct it here; the files themselves stay as they are.</p>
+            {mode.currentFiles.map((f, i) => (
+              <div key={f.name} className="flex flex-wrap items-center gap-3">
+                <label htmlFor={`kept-aoi-${i}`} className="min-w-0 flex-1 truncate text-sm">
+                  AOI of <span className="font-medium">{f.name}</span>
+                </label>
+                <div className="flex w-32">
+                  <input id={`kept-aoi-${i}`} type="number" step="any" min={0} max={60} inputMode="decimal" value={aoi[f.name] ?? String(f.aoiDeg ?? '')}
+                    onChange={(e) => {
+                      const v = e.target.value;
+                      setAoi((a) => ({ ...a, [f.name]: v }));
+                      if (errors.files || errors.method?.aoiDeg) form.clearErrors(['files', 'method.aoiDeg']);
+                    }}
+                    aria-invalid={!!aoiError(i)} aria-describedby={aoiError(i) ? `kept-aoi-${i}-error` : undefined}
+                    className={`${inputClass} figures rounded-r-none`} data-testid="kept-aoi-input" />
+                  <span className="flex items-center rounded-r-card border border-l-0 border-rule px-2 text-sm text-muted">°</span>
+                </div>
+                {aoiError(i) ? <p id={`kept-aoi-${i}-error`} role="alert" className="w-full text-sm text-bad">{aoiError(i)}</p> : null}
+              </div>
+            ))}
+          </fieldset>
         ) : null}
         <div className="space-y-4">
           {files.map((f, i) => (

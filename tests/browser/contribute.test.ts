@@ -231,4 +231,35 @@ describe('a curve set from the bench to the public library', () => {
     await screenshot(mine, 'contribute-account-390');
     await mine.context().close();
   });
+  it('a revision that keeps its files can correct the angle they were measured at', async () => {
+    // a demo submission sent back for changes, with one file kept as it is
+    const [sent] = await query<{ id: number; revision: number }>(
+      `SELECT s.id, s.revision FROM submissions s JOIN users u ON u.id = s.contributor_id
+       WHERE u.email = 'contributor2@bandcone.test' AND s.status = 'changes_requested' ORDER BY s.id LIMIT 1`,
+    );
+    expect(sent).toBeDefined();
+    const page = await newPage();
+    await signIn(page, 'contributor2@bandcone.test');
+    await page.goto(`${BASE}/account/submissions/${sent.id}`);
+    const kept = page.getByTestId('kept-aoi-input');
+    await expect(kept.count()).resolves.toBe(1);
+    await kept.fill('75');
+    await page.getByRole('button', { name: 'Send the revision' }).click();
+    // out of range: refused beside the field, nothing sent
+    await expect.poll(() => page.locator('[data-testid="kept-files"] [role="alert"]').textContent()).toMatch(/60/);
+    const [still] = await query<{ revision: number }>(`SELECT revision FROM submissions WHERE id = :id`, { id: sent.id });
+    expect(still.revision).toBe(sent.revision);
+
+    await kept.fill('7.5');
+    await page.getByRole('button', { name: 'Send the revision' }).click();
+    await page.waitForURL(/revised=1/, { timeout: 30_000 });
+    const curves = await query<{ aoi_deg: number; status: string }>(
+      `SELECT aoi_deg, status FROM curves WHERE submission_id = :id AND revision = :rev`,
+      { id: sent.id, rev: sent.revision + 1 },
+    );
+    expect(curves).toEqual([{ aoi_deg: 7.5, status: 'submitted' }]);
+    const files = await query<{ aoi_deg: number }>(`SELECT aoi_deg FROM submission_files WHERE submission_id = :id AND revision = :rev`, { id: sent.id, rev: sent.revision + 1 });
+    expect(files).toEqual([{ aoi_deg: 7.5 }]);
+    await page.context().close();
+  });
 });
