@@ -164,8 +164,8 @@ export function PasteCurve({ onAdd, disabled, count }: { onAdd: (c: StudyCurve) 
       <summary className="cursor-pointer px-2 py-1.5 text-xs font-medium hover:text-accent">Paste or upload your own curve</summary>
       <div className="space-y-2 border-t border-rule p-2">
         <p className="text-xs leading-snug text-muted">
-          Two columns, wavelength and transmission (nm, Å or µm; fraction, percent or OD). Read on the server and kept only in this page: not stored, and not
-          part of the shared link.
+          Two columns, wavelength and transmission (nm, Å or µm; fraction, percent or OD). Read on the server and not stored. A link copied from this page
+          carries it after the #, a part of the address browsers never send to a server.
         </p>
         <label htmlFor={`${id}-text`} className="sr-only">
           Curve data

@@ -9,6 +9,7 @@ import { useChartTheme } from '@/components/charts/use-chart-theme';
 import { findLine } from '@/lib/engine/lines';
 import type { StudyResults } from '@/lib/study/compute';
 import { studyCsv } from '@/lib/study/tables';
+import { curvesFromFragment, pastedFragment } from '@/lib/study/pasted-link';
 import type { StudyCurve } from '@/lib/study/types';
 import { fallbackLineFor, resolveSettings, studySearch, type QueryField, type StudyQuery } from '@/lib/study/url-state';
 import { StudyCautions } from './cautions';
@@ -34,6 +35,15 @@ export function StudyWorkbench(props: StudyWorkbenchProps) {
   const router = useRouter();
   const [query, setQuery] = useState(props.initialQuery);
   const [pasted, setPasted] = useState<StudyCurve[]>([]);
+  const [linkProblem, setLinkProblem] = useState<string | null>(null);
+  // Pasted curves that came in the link (after the #, which the server never sees); read once, in the browser.
+  useEffect(() => {
+    curvesFromFragment(window.location.hash)
+      .then((cs) => {
+        if (cs.length) setPasted((p) => [...p, ...cs.filter((c) => !p.some((x) => x.key === c.key))]);
+      })
+      .catch((e: Error) => setLinkProblem(e.message));
+  }, []);
   const [settingsOpen, setSettingsOpen] = useState(false);
   const [navigating, startNavigation] = useTransition();
   const theme = useChartTheme();
@@ -100,7 +110,7 @@ export function StudyWorkbench(props: StudyWorkbenchProps) {
   const [copied, setCopied] = useState(false);
   async function copyLink() {
     const search = studySearch(query);
-    const url = `${window.location.origin}/study${search ? `?${search}` : ''}`;
+    const url = `${window.location.origin}/study${search ? `?${search}` : ''}${await pastedFragment(curves)}`;
     try {
       await navigator.clipboard.writeText(url);
       setCopied(true);
@@ -160,6 +170,11 @@ export function StudyWorkbench(props: StudyWorkbenchProps) {
         </div>
 
         <div className="min-w-0 space-y-6">
+          {linkProblem ? (
+            <p role="alert" className="rounded-card border border-bad bg-panel px-3 py-2 text-sm text-bad" data-testid="link-problem">
+              {linkProblem}
+            </p>
+          ) : null}
           <div className="flex flex-wrap items-center gap-2 rounded-card border border-rule bg-panel px-3 py-2 text-sm" role="group" aria-label="Study actions">
             <span className="flex min-w-0 items-center gap-2" role="status" aria-live="polite" data-testid="study-status" data-busy={stale || undefined}>
               <span aria-hidden="true" className={`h-2 w-2 shrink-0 rounded-full ${stale ? 'animate-pulse bg-wait' : 'bg-ok'}`} />

@@ -242,7 +242,8 @@ describe('a curve set from the bench to the public library', () => {
     await signIn(page, 'contributor2@bandcone.test');
     await page.goto(`${BASE}/account/submissions/${sent.id}`);
     const kept = page.getByTestId('kept-aoi-input');
-    await expect(kept.count()).resolves.toBe(1);
+    await expect.poll(() => kept.count(), { timeout: 20_000 }).toBe(1);
+    await expect(kept.inputValue()).resolves.toBe('0');
     await kept.fill('75');
     await page.getByRole('button', { name: 'Send the revision' }).click();
     // out of range: refused beside the field, nothing sent

@@ -187,9 +187,33 @@ describe('choosing curves inside the study', () => {
     await expect(page.getByText(/Read 65 points as nm and percent/).count()).resolves.toBe(1);
     const pasted = page.getByTestId('verdict').filter({ hasText: 'Bench unit 7' });
     await expect(pasted.textContent()).resolves.toMatch(/pasted, not stored/);
-    // Not stored, and not in the link.
+    // Not stored, and not in the address the server sees.
     expect(Number((await query<{ n: string }>('SELECT count(*) AS n FROM curves'))[0].n)).toBe(curvesBefore);
     expect(new URL(page.url()).searchParams.get('curve')!.split(',')).toHaveLength(2);
+
+    // A copied link carries it after the #: opened afresh, the same three curves, the pasted one with its numbers.
+    await context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: BASE });
+    await page.getByRole('button', { name: 'Copy link to this study' }).click();
+    await expect.poll(() => page.getByRole('button', { name: 'Link copied' }).count()).toBe(1);
+    const link = await page.evaluate(() => navigator.clipboard.readText());
+    expect(link).toMatch(/#pasted=[A-Za-z0-9_-]+$/);
+    const fresh = await context.newPage();
+    await fresh.goto(link);
+    await expect.poll(() => fresh.getByTestId('verdict').count(), { timeout: 30_000 }).toBe(3);
+    const again = fresh.getByTestId('verdict').filter({ hasText: 'Bench unit 7' });
+    await expect.poll(() => again.textContent(), { timeout: 30_000 }).toMatch(/pasted, not stored/);
+    // the verdict is the same study of the same points
+    const throughputOf = (p: typeof page) => p.getByTestId('verdict').filter({ hasText: 'Bench unit 7' }).getByTestId('verdict-throughput').getAttribute('data-raw');
+    const before = Number(await throughputOf(page));
+    expect(before).toBeGreaterThan(0);
+    await expect.poll(async () => Number(await throughputOf(fresh)), { timeout: 30_000 }).toBe(before);
+    await fresh.close();
+    // a link cut short says so instead of failing quietly
+    const cut = await context.newPage();
+    await cut.goto(link.slice(0, link.length - 40));
+    await expect.poll(() => cut.getByTestId('link-problem').textContent(), { timeout: 30_000 }).toMatch(/could not be read/);
+    await cut.close();
+    expect(Number((await query<{ n: string }>('SELECT count(*) AS n FROM curves'))[0].n)).toBe(curvesBefore);
 
     await page.getByRole('button', { name: new RegExp(`Remove .*\\(#${picked}\\) from the study`) }).click();
     await expect.poll(() => page.getByTestId('verdict').count(), { timeout: 30_000 }).toBe(2);
