@@ -1,8 +1,7 @@
 'use client';
 
 import { useCallback, useId, useMemo, type ReactNode } from 'react';
-import { ChartCanvas } from './chart-canvas';
-import { ChartActions, ChartFrame } from './chart-frame';
+import { ControlledChart } from './controlled-chart';
 import { rowsToCsv, type CsvCell } from './csv';
 import { formatPercent, formatValue, type ValueFormat } from './format';
 import { axisOption, baseOption, tooltipHeader, tooltipOption, tooltipRow } from './options';
@@ -218,26 +217,20 @@ export function HeatmapChart({
   }, [x, y, values, points, theme, lo, hi, xName, yName, valueName, xFormat, yFormat]);
 
   return (
-    <ChartFrame
+    <ControlledChart
       title={title}
       titleAs={titleAs}
       summary={summary}
       summaryId={summaryId}
       summaryPlacement={summaryPlacement}
       className={className}
-      actions={<ChartActions onPng={controls.downloadPng} onCsv={controls.downloadCsv} />}
-    >
-      <ChartCanvas
-        option={option}
-        ready={theme.ready}
-        label={`${title}: ${valueName} (%) by ${xName} and ${yName}`}
-        describedBy={summary ? summaryId : undefined}
-        aspect={aspect}
-        narrowAspect={1}
-        height={height}
-        onEvents={controls.onEvents}
-        chartRef={controls.chartRef}
-      />
-    </ChartFrame>
+      controls={controls}
+      option={option}
+      ready={theme.ready}
+      label={`${title}: ${valueName} (%) by ${xName} and ${yName}`}
+      aspect={aspect}
+      narrowAspect={1}
+      height={height}
+    />
   );
 }

@@ -1,8 +1,8 @@
 'use client';
 
 import { useCallback, useId, useMemo, type ReactNode } from 'react';
-import { ChartCanvas } from './chart-canvas';
-import { ChartActions, ChartFrame, ChartLegend, type LegendItem } from './chart-frame';
+import type { LegendItem } from './chart-frame';
+import { ControlledChart } from './controlled-chart';
 import { columnsToCsv } from './csv';
 import { formatDeg, formatPercent } from './format';
 import { axisOption, baseOption, gridOption, tooltipHeader, tooltipOption, tooltipRow } from './options';
@@ -191,26 +191,20 @@ export function HistogramChart({
   }, [prepared, hidden, theme, markers, binWidth, xName, yName]);
 
   return (
-    <ChartFrame
+    <ControlledChart
       title={title}
       titleAs={titleAs}
       summary={summary}
       summaryId={summaryId}
       summaryPlacement={summaryPlacement}
       className={className}
-      legend={<ChartLegend items={controls.legendItems} onToggle={prepared.length > 1 ? controls.toggle : undefined} />}
-      actions={<ChartActions onPng={controls.downloadPng} onCsv={controls.downloadCsv} />}
-    >
-      <ChartCanvas
-        option={option}
-        ready={theme.ready}
-        label={`${title}: ${yName} against ${xName}`}
-        describedBy={summary ? summaryId : undefined}
-        aspect={aspect}
-        height={height}
-        onEvents={controls.onEvents}
-        chartRef={controls.chartRef}
-      />
-    </ChartFrame>
+      controls={controls}
+      option={option}
+      ready={theme.ready}
+      label={`${title}: ${yName} against ${xName}`}
+      aspect={aspect}
+      height={height}
+      legendSeries={prepared.length}
+    />
   );
 }

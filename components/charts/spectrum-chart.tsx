@@ -1,8 +1,8 @@
 'use client';
 
 import { useCallback, useId, useMemo, type ReactNode } from 'react';
-import { ChartCanvas } from './chart-canvas';
-import { ChartActions, ChartFrame, ChartLegend, type LegendItem } from './chart-frame';
+import type { LegendItem } from './chart-frame';
+import { ControlledChart } from './controlled-chart';
 import { seriesToCsv } from './csv';
 import { formatFwhm, formatNm, formatPercent } from './format';
 import {
@@ -379,33 +379,21 @@ export function SpectrumChart({
   const label = `${title}: transmission (%) against wavelength (nm), ${prepared.length} curve${prepared.length === 1 ? '' : 's'}`;
 
   return (
-    <ChartFrame
+    <ControlledChart
       title={title}
       titleAs={titleAs}
       summary={text}
       summaryId={summaryId}
       summaryPlacement={summaryPlacement}
       className={className}
-      legend={<ChartLegend items={controls.legendItems} onToggle={prepared.length > 1 ? controls.toggle : undefined} />}
-      actions={
-        <ChartActions
-          dragZoom={{ active: controls.boxZoom, onToggle: controls.toggleBoxZoom }}
-          onResetZoom={controls.resetZoom}
-          onPng={controls.downloadPng}
-          onCsv={controls.downloadCsv}
-        />
-      }
-    >
-      <ChartCanvas
-        option={option}
-        ready={theme.ready}
-        label={label}
-        describedBy={text ? summaryId : undefined}
-        aspect={aspect}
-        height={height}
-        onEvents={controls.onEvents}
-        chartRef={controls.chartRef}
-      />
-    </ChartFrame>
+      controls={controls}
+      option={option}
+      ready={theme.ready}
+      label={label}
+      aspect={aspect}
+      height={height}
+      legendSeries={prepared.length}
+      zoom
+    />
   );
 }

@@ -124,33 +124,36 @@ export function buildTheme(
   ready: boolean,
 ): ChartTheme {
   const { paper, panel, ink, muted, rule, accent } = vars;
+  // What day and night share; each view adds its own greys, markers, bands and ramp.
+  const common = (palette: string[], widths: readonly number[]) => ({
+    view,
+    ready,
+    text: rgba(ink),
+    muted: rgba(muted),
+    rule: rgba(rule),
+    accent: rgba(accent),
+    background: 'transparent' as const,
+    paper: rgba(paper),
+    panel: rgba(panel),
+    ...fonts,
+    palette,
+    series: (i: number) => ({
+      color: palette[i % MAX_SERIES],
+      dash: SERIES_DASHES[i % MAX_SERIES],
+      width: widths[i % MAX_SERIES],
+      symbol: SERIES_SYMBOLS[i % MAX_SERIES],
+    }),
+    coneDash: CONE_DASH,
+  });
 
   if (view === 'night') {
     // Every colour is a brightness of the night accent: red on black, nothing else.
     const red = (i: number) => toHex(scale(accent, nightBrightness(i)));
-    const palette = Array.from({ length: MAX_SERIES }, (_, i) => red(i));
     return {
-      view,
-      ready,
-      text: rgba(ink),
-      muted: rgba(muted),
+      ...common(Array.from({ length: MAX_SERIES }, (_, i) => red(i)), NIGHT_WIDTHS),
       axis: rgba(scale(muted, 0.8)),
       grid: rgba(rule, 0.85),
-      rule: rgba(rule),
-      accent: rgba(accent),
       accentSoft: rgba(accent, 0.18),
-      background: 'transparent',
-      paper: rgba(paper),
-      panel: rgba(panel),
-      ...fonts,
-      palette,
-      series: (i) => ({
-        color: palette[i % MAX_SERIES],
-        dash: SERIES_DASHES[i % MAX_SERIES],
-        width: NIGHT_WIDTHS[i % MAX_SERIES],
-        symbol: SERIES_SYMBOLS[i % MAX_SERIES],
-      }),
-      coneDash: CONE_DASH,
       lineMarker: () => rgba(scale(muted, 0.85)),
       lineLabel: () => rgba(muted),
       band: { fill: rgba(rule, 0.45), edge: rgba(scale(muted, 0.7)) },
@@ -159,29 +162,11 @@ export function buildTheme(
     };
   }
 
-  const palette = OKABE_ITO.map((hex) => toHex(ensureContrast(parseHex(hex), paper, 3)));
   return {
-    view,
-    ready,
-    text: rgba(ink),
-    muted: rgba(muted),
+    ...common(OKABE_ITO.map((hex) => toHex(ensureContrast(parseHex(hex), paper, 3))), DAY_WIDTHS),
     axis: rgba(muted),
     grid: rgba(rule, 0.7),
-    rule: rgba(rule),
-    accent: rgba(accent),
     accentSoft: rgba(accent, 0.12),
-    background: 'transparent',
-    paper: rgba(paper),
-    panel: rgba(panel),
-    ...fonts,
-    palette,
-    series: (i) => ({
-      color: palette[i % MAX_SERIES],
-      dash: SERIES_DASHES[i % MAX_SERIES],
-      width: DAY_WIDTHS[i % MAX_SERIES],
-      symbol: SERIES_SYMBOLS[i % MAX_SERIES],
-    }),
-    coneDash: CONE_DASH,
     // The hue of the wavelength itself, darkened only as far as 3:1 on paper needs.
     lineMarker: (nm) => toHex(ensureContrast(parseHex(lineColor(nm)), panel, 3)),
     lineLabel: (nm) => toHex(ensureContrast(parseHex(lineColor(nm)), panel, 4.5)),

@@ -1,8 +1,8 @@
 'use client';
 
 import { useCallback, useId, useMemo, type ReactNode } from 'react';
-import { ChartCanvas } from './chart-canvas';
-import { ChartActions, ChartFrame, ChartLegend, type LegendItem } from './chart-frame';
+import type { LegendItem } from './chart-frame';
+import { ControlledChart } from './controlled-chart';
 import { seriesToCsv } from './csv';
 import { finitePairs } from './downsample';
 import { formatValue, type ValueFormat } from './format';
@@ -279,33 +279,21 @@ export function XYChart({
 
   const label = `${title}: ${yName} against ${xName}`;
   return (
-    <ChartFrame
+    <ControlledChart
       title={title}
       titleAs={titleAs}
       summary={summary}
       summaryId={summaryId}
       summaryPlacement={summaryPlacement}
       className={className}
-      legend={<ChartLegend items={controls.legendItems} onToggle={prepared.length > 1 ? controls.toggle : undefined} />}
-      actions={
-        <ChartActions
-          dragZoom={zoom ? { active: controls.boxZoom, onToggle: controls.toggleBoxZoom } : undefined}
-          onResetZoom={zoom ? controls.resetZoom : undefined}
-          onPng={controls.downloadPng}
-          onCsv={controls.downloadCsv}
-        />
-      }
-    >
-      <ChartCanvas
-        option={option}
-        ready={theme.ready}
-        label={label}
-        describedBy={summary ? summaryId : undefined}
-        aspect={aspect}
-        height={height}
-        onEvents={controls.onEvents}
-        chartRef={controls.chartRef}
-      />
-    </ChartFrame>
+      controls={controls}
+      option={option}
+      ready={theme.ready}
+      label={label}
+      aspect={aspect}
+      height={height}
+      legendSeries={prepared.length}
+      zoom={zoom}
+    />
   );
 }
