@@ -14,7 +14,7 @@ import { findLine } from '@/lib/engine/lines';
 import type { Pupil } from '@/lib/engine/pupil';
 import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
 import { FINE_INTERVALS, LEVEL_LENGTH, SCALE, applyOffNormal, offNormalCoefficients, offNormalThroughput, type OffNormalCoefficients, type Weights } from './fitness-grid';
-import { binaryArraySql, readFloat8Array } from './binary-array';
+import { curvePointsByIds } from './points';
 import { catalogueCopy, dropCatalogueCopy, fineBlock, gridBlock, StaleCopy, type FineBlock, type GridBlock, type Snapshot } from './memory-index';
 import { hasFitness, type SearchParams, type Sort } from './search-params';
 
@@ -185,17 +185,12 @@ async function run(s: Snapshot, p: SearchParams & { fNumber: number }, w: Weight
 
 /** An off-normal curve without its fine level: the engine on the whole curve, as search.ts does. */
 async function exactFromPoints(s: Snapshot, p: SearchParams & { fNumber: number }, pupil: Pupil, rows: number[], tau: Float64Array) {
-  const found = await db().sequelize.query<{ id: number; w: Buffer; t: Buffer }>(
-    `SELECT id, ${binaryArraySql('wavelength_nm')} AS w, ${binaryArraySql('transmission')} AS t FROM curves WHERE id = ANY($1::int[])`,
-    { bind: [rows.map((i) => s.ids[i])], type: QueryTypes.SELECT },
-  );
-  const byId = new Map(found.map((r) => [r.id, r]));
+  const byId = await curvePointsByIds(rows.map((i) => s.ids[i]));
   for (const i of rows) {
     const r = byId.get(s.ids[i]);
     const line = findLine(p.line ?? s.lineSets[s.lineSet[i]][0] ?? '');
     if (!r || !line) continue;
-    const points = { wavelengthNm: readFloat8Array(r.w), transmission: readFloat8Array(r.t) };
-    tau[i] = lineThroughput(points, pupil, line.airNm, { nEff: p.nEff!, measuredAoiDeg: s.aoi[i] }).throughput;
+    tau[i] = lineThroughput(r.points, pupil, line.airNm, { nEff: p.nEff!, measuredAoiDeg: s.aoi[i] }).throughput;
   }
 }
 

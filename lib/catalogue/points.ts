@@ -1,7 +1,9 @@
-import { Op } from 'sequelize';
+import { Op, QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
 import { hasRole, type Actor } from '@/lib/auth/actor';
 import { notFound } from '@/lib/http/errors';
+import type { CurvePoints } from '@/lib/engine/types';
+import { binaryArraySql, readFloat8Array } from './binary-array';
 
 /**
  * Who reads which curves. The public reads verified curves, and superseded ones
@@ -21,4 +23,14 @@ export async function loadReadableCurve(actor: Actor | null, id: number, withPoi
   const curve = await model.findOne({ where: { id, ...readableWhere(actor) } });
   if (!curve) throw notFound(`No curve ${id} that you can read.`);
   return curve;
+}
+
+/** Whole curves by id for the engine (no readability check: callers pass ids a search has already filtered), sent in binary form. */
+export async function curvePointsByIds(ids: number[]): Promise<Map<number, { aoiDeg: number; nEff: number | null; fwhmNm: number | null; points: CurvePoints }>> {
+  if (ids.length === 0) return new Map();
+  const rows = await db().sequelize.query<{ id: number; aoi_deg: number; n_eff: number | null; fwhm_nm: number | null; w: Buffer; t: Buffer }>(
+    `SELECT id, aoi_deg, n_eff, fwhm_nm, ${binaryArraySql('wavelength_nm')} AS w, ${binaryArraySql('transmission')} AS t FROM curves WHERE id = ANY($1::int[])`,
+    { bind: [ids], type: QueryTypes.SELECT },
+  );
+  return new Map(rows.map((r) => [r.id, { aoiDeg: r.aoi_deg, nEff: r.n_eff, fwhmNm: r.fwhm_nm, points: { wavelengthNm: readFloat8Array(r.w), transmission: readFloat8Array(r.t) } }]));
 }

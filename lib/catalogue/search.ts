@@ -18,6 +18,7 @@ import { and, MARK_END, MARK_START, snippetHtml, SqlParts } from './sql';
 import { sparklineOf } from './sparkline';
 import { cachedCounts } from './count-cache';
 import { binaryArraySql, readFloat8Array } from './binary-array';
+import { curvePointsByIds } from './points';
 import { answeredInMemory, searchInMemory, type CountGroup } from './memory-search';
 
 export interface SearchItem {
@@ -413,7 +414,7 @@ async function assemble(p: SearchParams, pl: Plan, o: { sort: Sort; dir: 'asc' |
   }));
 
   const missingSpark = rows.filter((r) => !r.spark_w).map((r) => r.id);
-  if (hasFitness(p) || missingSpark.length > 0) await finishPage(p, items, missingSpark);
+  if (hasFitness(p) || missingSpark.length > 0) await finishPage(p, pl.pupil, items, missingSpark);
 
   return {
     items, total, ...o, facets,
@@ -423,29 +424,19 @@ async function assemble(p: SearchParams, pl: Plan, o: { sort: Sort; dir: 'asc' |
   };
 }
 
-/** Exact throughput (engine, one pupil for the page) and any sparkline the page lacks. */
-async function finishPage(p: SearchParams, items: SearchItem[], missingSpark: number[]) {
-  const ids = hasFitness(p) ? items.map((i) => i.id) : missingSpark;
-  if (ids.length === 0) return;
-  const rows = (
-    await db().sequelize.query<{ id: number; aoi_deg: number; n_eff: number | null; fwhm_nm: number | null; w: Buffer; t: Buffer }>(
-      `SELECT id, aoi_deg, n_eff, fwhm_nm, ${binaryArraySql('wavelength_nm')} AS w, ${binaryArraySql('transmission')} AS t FROM curves WHERE id = ANY($1::int[])`,
-      { bind: [ids], type: QueryTypes.SELECT },
-    )
-  ).map((r) => ({ ...r, wavelength_nm: readFloat8Array(r.w), transmission: readFloat8Array(r.t) }));
-  const byId = new Map(rows.map((r) => [r.id, r]));
-  const pupil = hasFitness(p) ? buildPupil({ fNumber: p.fNumber, obstruction: p.obstruction ?? 0, fieldAngleDeg: p.fieldAngleDeg ?? 0 }) : null;
+/** Exact throughput (engine, the search's pupil) and any sparkline the page lacks. */
+async function finishPage(p: SearchParams, pupil: Pupil | undefined, items: SearchItem[], missingSpark: number[]) {
+  const byId = await curvePointsByIds(hasFitness(p) ? items.map((i) => i.id) : missingSpark);
   for (const item of items) {
     const r = byId.get(item.id);
     if (!r) continue;
-    const points = { wavelengthNm: r.wavelength_nm, transmission: r.transmission };
-    if (missingSpark.includes(item.id)) item.sparkline = sparklineOf(points, r.fwhm_nm);
+    if (missingSpark.includes(item.id)) item.sparkline = sparklineOf(r.points, r.fwhmNm);
     if (pupil && hasFitness(p)) {
       const lineId = p.line ?? item.lines[0];
       const line = lineId ? findLine(lineId) : undefined;
       if (!line) continue;
-      const c = prepareCurve(points);
-      const tau = lineThroughput(c, pupil, line.airNm, { nEff: p.nEff ?? defaultNEff(r.n_eff), measuredAoiDeg: r.aoi_deg }).throughput;
+      const c = prepareCurve(r.points);
+      const tau = lineThroughput(c, pupil, line.airNm, { nEff: p.nEff ?? defaultNEff(r.nEff), measuredAoiDeg: r.aoiDeg }).throughput;
       item.throughput = tau;
       item.speedEquivalentFNumber = tau > 1e-12 && c.peak > 0 ? p.fNumber * Math.sqrt(c.peak / tau) : null;
     }
@@ -456,8 +447,7 @@ async function finishPage(p: SearchParams, items: SearchItem[], missingSpark: nu
 export async function matchingVerifiedIds(p: SearchParams, limit: number): Promise<{ ids: number[]; total: number }> {
   const pl = await plan(null, { ...p, status: undefined });
   const b = clauses(pl, new SqlParts());
-  const sort: Sort = p.sort ?? (p.q ? 'relevance' : 'newest');
-  const dir = p.dir ?? DEFAULT_DIR[sort];
+  const { sort, dir } = ordering(p);
   const rows = await db().sequelize.query<{ id: number; total: string }>(
     `SELECT c.id, count(*) OVER () AS total FROM curves c ${b.joins} WHERE ${and([...b.common, b.line, b.method, b.fwhm])}
      ORDER BY ${orderBy(sort, dir, b)} LIMIT ${b.s.param(limit + 1)}`,
