@@ -2,14 +2,7 @@
 export type { SearchItem as ResultItem, FacetCount as Facet, SearchResult as SearchResponse } from '@/lib/catalogue/search';
 
 /** An optic the fitness filter can be set from: the public examples, and the reader's own. */
-export interface OpticChoice {
-  id: number;
-  name: string;
-  fNumber: number;
-  obstruction: number;
-  fieldAngleDeg: number;
-  mine: boolean;
-}
+export type { OpticChoice } from '@/lib/catalogue/optic-choices';
 
 /** The URL state of a search: every value as the query string carries it. */
 export type Query = Record<string, string>;

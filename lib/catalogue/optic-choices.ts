@@ -1,13 +1,10 @@
 import { Op } from 'sequelize';
 import { db } from '@/db/models';
 import type { Actor } from '@/lib/auth/actor';
+import type { OpticChoice as StudyOpticChoice } from '@/lib/study/url-state';
 
-export interface OpticChoice {
-  id: number;
-  name: string;
-  fNumber: number;
-  obstruction: number;
-  fieldAngleDeg: number;
+/** An optic a reader can pick (the study's own shape), and whether it is theirs. */
+export interface OpticChoice extends StudyOpticChoice {
   mine: boolean;
 }
 
