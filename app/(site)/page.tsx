@@ -16,7 +16,7 @@ export default function HomePage() {
         <input
           id="home-q"
           name="q"
-          placeholder="Search curves: H-alpha 3 nm, dual band, a maker or lab…"
+          placeholder="Search curves: H-alpha 4.5 nm, dual band, a maker or lab…"
           className="min-w-0 flex-1 rounded-card border border-rule bg-panel px-3 py-2"
         />
         <button className="rounded-card bg-accent px-4 py-2 text-accent-ink">Search</button>

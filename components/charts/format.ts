@@ -70,7 +70,7 @@ export function formatDeg(deg: number | null | undefined, decimals = 1): string 
   return text === MISSING ? MISSING : `${text}°`;
 }
 
-/** Unitless ratios such as the central obstruction (0.40) or an effective index. */
+/** Unitless ratios such as the central obstruction (0.36) or an effective index. */
 export function formatRatio(value: number | null | undefined, decimals = 2): string {
   return fixed(value, decimals);
 }

@@ -37,7 +37,7 @@ export interface XYSeries {
 
 export interface XYMarker {
   value: number;
-  /** Text on the marker, e.g. "your optic f/2.2" or "best pre-shift +0.62 nm". */
+  /** Text on the marker, e.g. "your optic f/2.5" or "best pre-shift +0.62 nm". */
   label: string;
   /** 'x' (default) draws a vertical marker at an x value; 'y' a horizontal one. */
   axis?: 'x' | 'y';

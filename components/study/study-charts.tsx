@@ -8,6 +8,7 @@ import { XYChart, type XYMarker, type XYSeries } from '@/components/charts/xy-ch
 import { fixed, formatDeg, formatFNumber, formatNm, formatRatio, formatSignedNm, formatTransmission } from '@/components/charts/format';
 import { findLine } from '@/lib/engine/lines';
 import type { AngleBin } from '@/lib/engine/types';
+import { EXPLORER_HIGHLIGHT_WIDTHS_NM } from '@/lib/study/explorer';
 import type { StudyResults } from '@/lib/study/compute';
 import type { CurveStudy, StudySettings } from '@/lib/study/types';
 
@@ -287,7 +288,7 @@ function lineNameOf(st: CurveStudy): string {
 
 function ExplorerSummary({ results, settings }: { results: StudyResults; settings: StudySettings }) {
   const ex = results.explorer!;
-  const pick = [3, 5, 7, 12].map((w) => ex.ridge.find((r) => Math.abs(r.widthNm - w) < 1e-9)).filter(Boolean) as typeof ex.ridge;
+  const pick = EXPLORER_HIGHLIGHT_WIDTHS_NM.map((w) => ex.ridge.find((r) => Math.abs(r.widthNm - w) < 1e-9)).filter(Boolean) as typeof ex.ridge;
   return (
     <div className="space-y-2">
       <p>
@@ -297,7 +298,7 @@ function ExplorerSummary({ results, settings }: { results: StudyResults; setting
       <ul className="space-y-0.5">
         {pick.map((r) => (
           <li key={r.widthNm}>
-            {formatNm(r.widthNm, 0)} wide: best at {formatSignedNm(r.shiftNm, 1)}, {formatTransmission(r.throughput)}
+            {formatNm(r.widthNm, Number.isInteger(r.widthNm) ? 0 : 1)} wide: best at {formatSignedNm(r.shiftNm, 1)}, {formatTransmission(r.throughput)}
           </li>
         ))}
       </ul>

@@ -1,6 +1,6 @@
 /**
  * The fitness grid: what a verified curve keeps of a line, stored so that
- * "keeps ≥ 85 % of Hα at f/2.2 with a 0.40 obstruction" is a short weighted
+ * "keeps ≥ 85 % of Hα at f/2.5 with a 0.36 obstruction" is a short weighted
  * sum of stored numbers per curve instead of a cone model per curve.
  *
  * Why this shape. In the cone model (MODEL.md §3–6) a ray whose incidence has

@@ -74,6 +74,9 @@ function steps(from: number, to: number, step: number): number[] {
 
 export const EXPLORER_WIDTHS = { from: 2, to: 15, step: 0.25 } as const;
 
+/** Widths the explorer's summary reads out (each on the grid above). */
+export const EXPLORER_HIGHLIGHT_WIDTHS_NM: readonly number[] = [2.5, 4.5, 7, 9];
+
 /**
  * The map for one optic (its on-axis pupil), one line and one n_eff, sized so the
  * shift the optic's marginal ray causes, and every placed curve, are inside it.

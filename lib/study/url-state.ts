@@ -162,12 +162,16 @@ export interface ResolvedStudy {
   opticSource: 'saved' | 'typed' | 'default';
 }
 
-/** The optic a study opens with when none is named: the example closest to a common fast astrograph. */
+/** The study's own default optic: a fast obstructed astrograph, f/2.5 with a 0.36 central obstruction. */
+export const DEFAULT_F_NUMBER = 2.5;
+export const DEFAULT_OBSTRUCTION = 0.36;
+
+/** The optic a study opens with when none is named: the saved example closest to the default f-number, else the default itself. */
 export function defaultOptic(optics: readonly OpticChoice[]): StudyOptic {
-  const sorted = [...optics].sort((a, b) => Math.abs(a.fNumber - 2.2) - Math.abs(b.fNumber - 2.2) || a.id - b.id);
+  const sorted = [...optics].sort((a, b) => Math.abs(a.fNumber - DEFAULT_F_NUMBER) - Math.abs(b.fNumber - DEFAULT_F_NUMBER) || a.id - b.id);
   const o = sorted[0];
   if (o) return { id: o.id, name: o.name, fNumber: o.fNumber, obstruction: o.obstruction, fieldAngleDeg: o.fieldAngleDeg, mapping: 'tangent' };
-  return { id: null, name: 'f/2.2, 0.40 obstruction', fNumber: 2.2, obstruction: 0.4, fieldAngleDeg: 0, mapping: 'tangent' };
+  return { id: null, name: `f/${DEFAULT_F_NUMBER}, ${DEFAULT_OBSTRUCTION.toFixed(2)} obstruction`, fNumber: DEFAULT_F_NUMBER, obstruction: DEFAULT_OBSTRUCTION, fieldAngleDeg: 0, mapping: 'tangent' };
 }
 
 /**

@@ -156,7 +156,7 @@ function curveNotes(rng: Rng, model: FilterModel, unit: UnitTruth, extra: string
   parts.push(rng.pick(SUBSTRATES));
   if (rng.chance(0.5)) parts.push(rng.pick(EXTRAS));
   if (model.declaredPreShiftNm !== undefined) {
-    parts.push(`maker states a ${model.declaredPreShiftNm} nm pre-shift for fast optics (about f/2 to f/3)`);
+    parts.push(`maker states a ${model.declaredPreShiftNm} nm pre-shift for fast optics (roughly f/1.8 to f/3.5)`);
   }
   if (model.bands.length > 1) {
     const second = model.bands[1];

@@ -230,26 +230,26 @@ describe('saving optics', () => {
     await signInAs(page, user.email, user.password);
     await page.goto(`${BASE}/optics`);
 
-    await page.getByLabel('Name').fill('Bench astrograph 200/440');
-    await page.getByLabel('Aperture diameter').fill('200');
-    await page.getByLabel('Focal length').fill('440');
-    await page.getByLabel('Obstruction diameter').fill('80');
+    await page.getByLabel('Name').fill('Bench astrograph 160/384');
+    await page.getByLabel('Aperture diameter').fill('160');
+    await page.getByLabel('Focal length').fill('384');
+    await page.getByLabel('Obstruction diameter').fill('48');
     await page.getByLabel('Sensor diagonal').fill('28.4');
     await page.getByLabel('Exit pupil to sensor').fill('101');
-    // 440/200 = f/2.2; 80/200 = 0.40; atan(14.2/101) = 8.0° (computed by hand).
-    await expect(page.getByTestId('optic-derived').textContent()).resolves.toMatch(/f\/2\.2 · obstruction 0\.40 · chief ray 8\.0°/);
-    await expect(page.getByLabel('f-number').inputValue()).resolves.toBe('2.200');
+    // 384/160 = f/2.4; 48/160 = 0.30; atan(14.2/101) = 8.0° (computed by hand).
+    await expect(page.getByTestId('optic-derived').textContent()).resolves.toMatch(/f\/2\.4 · obstruction 0\.30 · chief ray 8\.0°/);
+    await expect(page.getByLabel('f-number').inputValue()).resolves.toBe('2.400');
     await screenshot(page, 'optics-form-1440');
     await page.getByRole('button', { name: 'Save optic' }).click();
-    const row = page.getByRole('row', { name: /Bench astrograph 200\/440/ });
+    const row = page.getByRole('row', { name: /Bench astrograph 160\/384/ });
     await row.waitFor();
-    await expect(row.textContent()).resolves.toMatch(/f\/2\.2.*0\.40.*8\.0°/);
+    await expect(row.textContent()).resolves.toMatch(/f\/2\.4.*0\.30.*8\.0°/);
 
     await row.getByRole('button', { name: 'Edit' }).click();
-    await page.getByLabel('Focal length').fill('500');
+    await page.getByLabel('Focal length').fill('512');
     await page.getByRole('button', { name: 'Save changes' }).click();
-    // 500/200 = f/2.5.
-    await page.getByRole('row', { name: /Bench astrograph.*f\/2\.5/ }).waitFor();
+    // 512/160 = f/3.2.
+    await page.getByRole('row', { name: /Bench astrograph.*f\/3\.2/ }).waitFor();
 
     // A value the server refuses is named beside its field.
     await page.getByLabel('Name').fill('Too fast');
@@ -261,12 +261,12 @@ describe('saving optics', () => {
     await page.getByRole('row', { name: /Bench astrograph/ }).getByRole('link', { name: 'Study' }).click();
     await page.waitForURL(new RegExp(`/study\\?optic=${saved.id}`));
     await expect(page.locator('#study-optic').inputValue()).resolves.toBe(String(saved.id));
-    await expect(page.locator('#study-f').inputValue()).resolves.toBe('2.5');
+    await expect(page.locator('#study-f').inputValue()).resolves.toBe('3.2');
 
     await page.goto(`${BASE}/optics`);
     await page.getByRole('row', { name: /Bench astrograph/ }).getByRole('button', { name: 'Delete' }).click();
     await page.getByRole('button', { name: /Delete “Bench astrograph/ }).click();
-    await page.getByText(/Deleted “Bench astrograph 200\/440”/).waitFor();
+    await page.getByText(/Deleted “Bench astrograph 160\/384”/).waitFor();
     expect(await page.getByRole('row', { name: /Bench astrograph/ }).count()).toBe(0);
     expect((await query('SELECT id FROM optics WHERE owner_id = :id', { id: user.id })).length).toBe(0);
 

@@ -19,11 +19,11 @@ const seen = (r: SearchResult) => ({ ids: r.items.map((i) => i.id), total: r.tot
 // n_eff or a named one (off-normal curves then come from their fine level), field angles, every
 // filter, every sort in both directions, later pages.
 const SEARCHES = [
-  'line=Ha&fNumber=2.2&obstruction=0.4&minThroughput=0.85&sort=throughput',
-  'line=Ha&fwhmMax=5&fNumber=2.2&obstruction=0.4&minThroughput=0.6',
+  'line=Ha&fNumber=2.5&obstruction=0.36&minThroughput=0.85&sort=throughput',
+  'line=Ha&fwhmMax=5&fNumber=2.5&obstruction=0.36&minThroughput=0.6',
   'line=OIII&fNumber=1.8&obstruction=0.2&sort=throughput&pageSize=30',
   'line=OIII&fNumber=1.8&obstruction=0.2&sort=throughput&dir=asc&page=2&pageSize=5',
-  'fNumber=2.2&obstruction=0.4&minThroughput=0.5&sort=throughput',
+  'fNumber=2.5&obstruction=0.36&minThroughput=0.5&sort=throughput',
   'fNumber=3&minThroughput=0.4&sort=cwl&dir=desc&page=2&pageSize=10',
   'fNumber=3&sort=newest&dir=asc&pageSize=7&page=3',
   'fNumber=4&sort=peak&pageSize=15',
@@ -117,7 +117,7 @@ describe('the copy follows the library', () => {
   });
 
   it('a newly verified curve is found by the next fitness search, and a withdrawn one is gone', async () => {
-    const qs = 'line=Ha&fNumber=2.2&obstruction=0.4&sort=throughput&pageSize=1';
+    const qs = 'line=Ha&fNumber=2.5&obstruction=0.36&sort=throughput&pageSize=1';
     const p = parseSearchParams(new URLSearchParams(qs));
     const best = (await searchCurves(null, p)).items[0];
     expect(best).toBeDefined();

@@ -127,7 +127,7 @@ describe('every filter returns only curves that satisfy it', () => {
 
 describe('fitness for an optic', () => {
   const visitor = anonymous();
-  const optic = 'fNumber=2.2&obstruction=0.4';
+  const optic = 'fNumber=2.5&obstruction=0.36';
 
   it('gives each result its exact throughput and speed-equivalent f-number, as the cone model does', async () => {
     const page = await search(visitor, `line=Ha&${optic}&sort=throughput&pageSize=5`);
@@ -137,13 +137,13 @@ describe('fitness for an optic', () => {
       const res = await visitor.fetch('/api/model/cone', {
         method: 'POST',
         headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ curveId: item.id, optic: { fNumber: 2.2, obstruction: 0.4 }, nEff: c.n_eff ?? 2.0, lines: ['Ha'] }),
+        body: JSON.stringify({ curveId: item.id, optic: { fNumber: 2.5, obstruction: 0.36 }, nEff: c.n_eff ?? 2.0, lines: ['Ha'] }),
       });
       const model = await json<{ lines: { id: string; throughput: number; speedEquivalentFNumber: number }[] }>(res);
       expect(item.throughput).toBeCloseTo(model.lines[0].throughput, 10);
       expect(item.speedEquivalentFNumber).toBeCloseTo(model.lines[0].speedEquivalentFNumber, 10);
       // MODEL.md §6: N_eq = N · sqrt(T_peak / τ)
-      expect(item.speedEquivalentFNumber!).toBeCloseTo(2.2 * Math.sqrt(item.peakT / item.throughput!), 8);
+      expect(item.speedEquivalentFNumber!).toBeCloseTo(2.5 * Math.sqrt(item.peakT / item.throughput!), 8);
     }
   });
 

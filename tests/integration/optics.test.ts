@@ -45,10 +45,10 @@ describe('reading optics', () => {
     expect(items.length).toBeGreaterThanOrEqual(7);
     expect(total).toBe(items.length);
     expect(items.every((o) => o.isExample && !o.mine)).toBe(true);
-    const astrograph = items.find((o) => o.name.startsWith('Fast astrograph'))!;
-    // f-number = focal length / aperture diameter (the definition; W. J. Smith, Modern Optical Engineering): 440/200.
-    expect(astrograph.fNumber).toBeCloseTo(2.2, 6);
-    expect(astrograph.obstruction).toBeCloseTo(80 / 200, 6);
+    const astrograph = items.find((o) => o.name.startsWith('Obstructed astrograph'))!;
+    // f-number = focal length / aperture diameter (the definition; W. J. Smith, Modern Optical Engineering): 500/200.
+    expect(astrograph.fNumber).toBeCloseTo(2.5, 6);
+    expect(astrograph.obstruction).toBeCloseTo(72 / 200, 6);
     expect((await anonymous().fetch(`/api/optics/${astrograph.id}`)).status).toBe(200);
   });
 
@@ -81,16 +81,16 @@ describe('saving an optic', () => {
   });
 
   it('derives the f-number and obstruction ratio from the hardware', async () => {
-    const res = await send(owner, 'POST', '/api/optics', { name: 'Astrograph 200/440', apertureMm: 200, focalLengthMm: 440, obstructionMm: 80 });
+    const res = await send(owner, 'POST', '/api/optics', { name: 'Astrograph 250/450', apertureMm: 250, focalLengthMm: 450, obstructionMm: 80 });
     expect(res.status).toBe(201);
     const o = await json<OpticBody>(res);
-    expect(o.fNumber).toBeCloseTo(440 / 200, 9);
-    expect(o.obstruction).toBeCloseTo(0.4, 9);
+    expect(o.fNumber).toBeCloseTo(450 / 250, 9);
+    expect(o.obstruction).toBeCloseTo(0.32, 9);
     expect(o.derived).toEqual({ fNumber: true, obstruction: true, fieldAngleDeg: false });
     expect(o.fieldAngleDeg).toBe(0);
     const [row] = await query<{ owner_id: string; f_number: number }>('SELECT owner_id, f_number FROM optics WHERE id = :id', { id: o.id });
     expect(row.owner_id).toBe(ownerId);
-    expect(row.f_number).toBeCloseTo(2.2, 9);
+    expect(row.f_number).toBeCloseTo(1.8, 9);
   });
 
   it('lets a reducer multiply the focal length', async () => {

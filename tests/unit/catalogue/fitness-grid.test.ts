@@ -77,7 +77,7 @@ function optics(seed: number, count: number, mode: 'axis' | 'neff' | 'field'): F
 
 describe('fitness grid against the definition of line throughput (MODEL.md §5–6)', () => {
   // Narrow, pre-shifted, wide, dual-band and off-normal units: the cases where interpolation could go wrong.
-  const picks = ['Vantrell Slimline Hα 3nm', 'Tessaly & Hume Keystone Hα 2.5nm f/3', 'Ostrowen Wideleaf OIII 12nm', 'Brisquenne Fastline Hα 4.5nm']
+  const picks = ['Vantrell Quillon Hα 2.5nm', 'Tessaly & Hume Corvelle Hα 2.8nm', 'Ostrowen Wideleaf OIII 10nm', 'Brisquenne Leewing Hα 4.5nm']
     .map((label) => verified.find((c) => c.label === label && c.method.aoiDeg === 0))
     .filter((c): c is DemoCurve => !!c);
   const offNormal = verified.find((c) => c.method.aoiDeg > 0 && c.trueNEff);
@@ -86,9 +86,9 @@ describe('fitness grid against the definition of line throughput (MODEL.md §5�
     expect(picks.length).toBe(4);
     const cases: [DemoCurve, Required<FitnessQuery>][] = [];
     for (const c of picks) {
-      cases.push([c, { fNumber: 2.2, obstruction: 0.4, nEff: DEFAULT_N_EFF, fieldAngleDeg: 0 }]);
-      cases.push([c, { fNumber: 1.4, obstruction: 0, nEff: 1.8, fieldAngleDeg: 0 }]);
-      cases.push([c, { fNumber: 2.8, obstruction: 0.3, nEff: 2.1, fieldAngleDeg: 8 }]);
+      cases.push([c, { fNumber: 2.5, obstruction: 0.36, nEff: DEFAULT_N_EFF, fieldAngleDeg: 0 }]);
+      cases.push([c, { fNumber: 1.6, obstruction: 0, nEff: 1.8, fieldAngleDeg: 0 }]);
+      cases.push([c, { fNumber: 3.2, obstruction: 0.28, nEff: 2.1, fieldAngleDeg: 8 }]);
     }
     let worst = 0;
     for (const [c, q] of cases) {

@@ -14,8 +14,8 @@ function refusal(qs: string): { field?: string; message: string } {
 
 describe('catalogue query parameters (API.md, GET /api/curves)', () => {
   it('reads numbers, ids and choices from a query string and leaves empty values unset', () => {
-    const p = parseSearchParams(new URLSearchParams('q=hydrogen+alpha&line=Ha&fwhmMax=5&fNumber=2.2&obstruction=0.40&minThroughput=0.85&sort=throughput&pageSize=50&cwlMin='));
-    expect(p).toMatchObject({ q: 'hydrogen alpha', line: 'Ha', fwhmMax: 5, fNumber: 2.2, obstruction: 0.4, minThroughput: 0.85, sort: 'throughput', pageSize: 50 });
+    const p = parseSearchParams(new URLSearchParams('q=hydrogen+alpha&line=Ha&fwhmMax=5&fNumber=2.5&obstruction=0.36&minThroughput=0.85&sort=throughput&pageSize=50&cwlMin='));
+    expect(p).toMatchObject({ q: 'hydrogen alpha', line: 'Ha', fwhmMax: 5, fNumber: 2.5, obstruction: 0.36, minThroughput: 0.85, sort: 'throughput', pageSize: 50 });
     expect(p.cwlMin).toBeUndefined();
   });
 

@@ -106,7 +106,7 @@ describe('series as columns', () => {
 
 describe('file names', () => {
   it('makes a safe ASCII name from a title', () => {
-    expect(fileNameFor('Hα curve: unit #12 / cone f/2.2', 'csv')).toBe('ha-curve-unit-12-cone-f-2-2.csv');
+    expect(fileNameFor('Hα curve: unit #12 / cone f/2.5', 'csv')).toBe('ha-curve-unit-12-cone-f-2-5.csv');
     expect(fileNameFor('   ', 'png')).toBe('bandcone-chart.png');
     expect(fileNameFor('../../etc/passwd', 'csv')).toBe('etc-passwd.csv');
   });

@@ -44,11 +44,11 @@ describe('number formats', () => {
   });
 
   it('prints f-numbers, angles, ratios and signed shifts', () => {
-    expect(formatFNumber(2.2)).toBe('f/2.2');
+    expect(formatFNumber(2.5)).toBe('f/2.5');
     expect(formatFNumber(1.4)).toBe('f/1.4');
     expect(formatFNumber(4)).toBe('f/4.0');
     expect(formatDeg(4.27)).toBe('4.3°');
-    expect(formatRatio(0.4)).toBe('0.40');
+    expect(formatRatio(0.3)).toBe('0.30');
     expect(formatSignedNm(0.62)).toBe('+0.62 nm');
     expect(formatSignedNm(-0.3)).toBe('-0.30 nm');
   });
@@ -68,7 +68,7 @@ describe('number formats', () => {
     expect(formatValue(0.5, 'nm-signed')).toBe('+0.50 nm');
     expect(formatValue(0.874, 'fraction-percent')).toBe('87.4 %');
     expect(formatValue(87.4, 'percent')).toBe('87.4 %');
-    expect(formatValue(2.2, 'fnumber')).toBe('f/2.2');
+    expect(formatValue(2.5, 'fnumber')).toBe('f/2.5');
     expect(formatValue(12.345, { decimals: 1, unit: '°' })).toBe('12.3°');
     expect(formatValue(1.5, { decimals: 3, unit: 'mm', signed: true })).toBe('+1.500 mm');
     expect(formatValue(1.23456)).toBe('1.23');

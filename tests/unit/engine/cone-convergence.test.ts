@@ -15,7 +15,7 @@ describe('convergence: production quadrature within 1e-4 of brute-force integrat
   };
   const optics: Optic[] = [
     { fNumber: 2, obstruction: 0 },
-    { fNumber: 2.2, obstruction: 0.45 },
+    { fNumber: 2.4, obstruction: 0.45 },
     { fNumber: 1.4, obstruction: 0.3, fieldAngleDeg: 15 },
     { fNumber: 3, obstruction: 0.2, fieldAngleDeg: 10, mapping: 'sine' },
     { fNumber: 4, obstruction: 0.35, fieldAngleDeg: 20 },

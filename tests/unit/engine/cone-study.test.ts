@@ -7,7 +7,7 @@ import { dopplerShift } from '@/lib/engine/lines';
 import { multiCavity } from './fixtures';
 
 const ha = multiCavity(656.28, 3, 3, { peak: 0.93, noise: 0.002, seed: 4 });
-const base = { points: ha, optic: { fNumber: 2.2, obstruction: 0.4 }, nEff: 2.05 };
+const base = { points: ha, optic: { fNumber: 2.5, obstruction: 0.36 }, nEff: 2.05 };
 
 describe('runConeModel: the POST /api/model/cone response (API.md)', () => {
   it('returns exactly the documented fields', () => {
@@ -31,7 +31,7 @@ describe('runConeModel: the POST /api/model/cone response (API.md)', () => {
     expect(r.lines[0].collimated).toBeCloseTo(one.collimated, 12);
     const peak = Math.max(...ha.transmission);
     // N_eq = N · sqrt(T_peak / τ) (MODEL.md §6)
-    expect(r.lines[0].speedEquivalentFNumber).toBeCloseTo(2.2 * Math.sqrt(peak / one.throughput), 10);
+    expect(r.lines[0].speedEquivalentFNumber).toBeCloseTo(2.5 * Math.sqrt(peak / one.throughput), 10);
     expect(r.bestPreShift!.throughput).toBeGreaterThanOrEqual(one.throughput);
     expect(r.angleHistogram.reduce((s, b) => s + b.weight, 0)).toBeCloseTo(1, 10);
   });

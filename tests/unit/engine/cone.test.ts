@@ -41,7 +41,7 @@ describe('limits the model must reproduce exactly', () => {
 
   it('the cone-averaged curve agrees with single-line throughput at every grid point', () => {
     const pts = multiCavity(500.7, 3, 2, { noise: 0.004 });
-    const pupil = buildPupil({ fNumber: 2.5, obstruction: 0.33 });
+    const pupil = buildPupil({ fNumber: 2.5, obstruction: 0.36 });
     const cone = coneCurve(pts, pupil, { nEff: 2, preShiftNm: 0.4 });
     expect(cone.covered).toBe(true);
     for (let i = 0; i < cone.wavelengthNm.length; i += 97) {

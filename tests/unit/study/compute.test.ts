@@ -76,10 +76,10 @@ describe('a study of an ideal flat-top passband', () => {
   });
 
   it('draws every chart from the same numbers the verdict states', () => {
-    const st = studyCurve(flatTop(HA + 0.5, 3), settings({ optic: { id: null, name: 'x', fNumber: 2.2, obstruction: 0.4, fieldAngleDeg: 8, mapping: 'tangent' }, preShiftNm: 0.3 }));
+    const st = studyCurve(flatTop(HA + 0.5, 3), settings({ optic: { id: null, name: 'x', fNumber: 2.4, obstruction: 0.36, fieldAngleDeg: 8, mapping: 'tangent' }, preShiftNm: 0.3 }));
     const tau = st.onAxis.lines[0].throughput;
     const at = (s: { x: number[]; y: number[] }, x: number) => s.y[s.x.findIndex((v) => Math.abs(v - x) < 1e-9)];
-    expect(at(st.fSweep, 2.2)).toBeCloseTo(tau, 12);
+    expect(at(st.fSweep, 2.4)).toBeCloseTo(tau, 12);
     expect(st.fieldSweep.y[0]).toBeCloseTo(tau, 12);
     expect(st.fieldSweep.x[st.fieldSweep.x.length - 1]).toBe(8);
     expect(st.edge!.throughput).toBe(st.fieldSweep.y[st.fieldSweep.y.length - 1]);
@@ -133,7 +133,7 @@ describe('the verdict in words', () => {
 
 describe('exports and requests', () => {
   it('writes every chart’s table into one CSV', () => {
-    const s = settings({ optic: { id: null, name: 'Typed optic', fNumber: 2.2, obstruction: 0.4, fieldAngleDeg: 8, mapping: 'tangent' } });
+    const s = settings({ optic: { id: null, name: 'Typed optic', fNumber: 2.5, obstruction: 0.36, fieldAngleDeg: 8, mapping: 'tangent' } });
     const csv = studyCsv(computeStudy([flatTop(HA + 1, 3)], s), s);
     for (const title of [
       '# verdict',

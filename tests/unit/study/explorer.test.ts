@@ -31,11 +31,11 @@ function analyticFlatTop(N: number, eps: number, n: number, line: number, w: num
 describe('flat-top explorer', () => {
   const cases: [number, number, number, number, number][] = [
     // N, ε, n_eff, FWHM, pre-shift
-    [2.2, 0.4, 2.0, 3, 1],
-    [2.2, 0.4, 2.0, 6, 2.5],
-    [1.4, 0, 1.8, 5, 3],
-    [2.8, 0.3, 2.05, 3, 0],
-    [1.0, 0.2, 2.0, 12, 8],
+    [2.5, 0.36, 2.0, 2.5, 1],
+    [2.5, 0.36, 2.0, 7, 2.5],
+    [1.8, 0.42, 1.8, 4.5, 3],
+    [3.6, 0, 2.05, 2.5, 0],
+    [1.0, 0.2, 2.0, 9, 8],
     [4.8, 0, 2.0, 2, -0.5],
   ];
   for (const [N, eps, n, w, d] of cases) {
@@ -72,7 +72,7 @@ describe('flat-top explorer', () => {
   });
 
   it('grows to hold every placed curve', () => {
-    const pupil = buildPupil({ fNumber: 2.2, obstruction: 0.4 });
+    const pupil = buildPupil({ fNumber: 2.5, obstruction: 0.36 });
     const grid = explorerGrid(pupil, 2, 656.28, [{ key: 'c1', label: 'wide', widthNm: 18, shiftNm: 9, throughput: 0.9 }]);
     expect(grid.widthsNm[grid.widthsNm.length - 1]).toBeGreaterThanOrEqual(18);
     expect(grid.shiftsNm[grid.shiftsNm.length - 1]).toBeGreaterThanOrEqual(9);

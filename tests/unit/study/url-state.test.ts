@@ -2,9 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { parseStudyQuery, readLine, readNumber, resolveSettings, studySearch, fallbackLineFor, MAX_STUDY_CURVES } from '@/lib/study/url-state';
 
 const OPTICS = [
-  { id: 1, name: 'Fast astrograph', fNumber: 2.2, obstruction: 0.4, fieldAngleDeg: 8 },
-  { id: 2, name: 'Camera lens', fNumber: 1.4, obstruction: 0, fieldAngleDeg: 12 },
-  { id: 7, name: 'Long refractor', fNumber: 8, obstruction: 0, fieldAngleDeg: 1 },
+  { id: 1, name: 'Fast astrograph', fNumber: 2.5, obstruction: 0.36, fieldAngleDeg: 8 },
+  { id: 2, name: 'Camera lens', fNumber: 1.6, obstruction: 0, fieldAngleDeg: 12 },
+  { id: 7, name: 'Cassegrain', fNumber: 8.5, obstruction: 0.3, fieldAngleDeg: 1 },
 ];
 
 describe('the study link', () => {
@@ -50,15 +50,15 @@ describe('reading typed values', () => {
 });
 
 describe('settings from the link', () => {
-  it('falls back to the example closest to a fast astrograph when no optic is named', () => {
+  it('falls back to the example closest to the default f/2.5 when no optic is named', () => {
     const r = resolveSettings(parseStudyQuery({}), OPTICS, { id: 'Ha' });
-    expect(r.settings.optic).toMatchObject({ id: 1, fNumber: 2.2, obstruction: 0.4, fieldAngleDeg: 8, mapping: 'tangent' });
+    expect(r.settings.optic).toMatchObject({ id: 1, fNumber: 2.5, obstruction: 0.36, fieldAngleDeg: 8, mapping: 'tangent' });
     expect(r.opticSource).toBe('default');
     expect(r.errors).toEqual({});
   });
 
   it('uses a named optic, and says so when it is not available', () => {
-    expect(resolveSettings(parseStudyQuery({ optic: '7' }), OPTICS, { id: 'Ha' }).settings.optic.fNumber).toBe(8);
+    expect(resolveSettings(parseStudyQuery({ optic: '7' }), OPTICS, { id: 'Ha' }).settings.optic.fNumber).toBe(8.5);
     const missing = resolveSettings(parseStudyQuery({ optic: '99' }), OPTICS, { id: 'Ha' });
     expect(missing.errors.optic).toMatch(/Optic 99 is not one you can use/);
     expect(missing.settings.optic.id).toBe(1);
@@ -74,7 +74,7 @@ describe('settings from the link', () => {
     expect(r.errors.k).toMatch(/between -1 and 1/);
     expect(r.errors.v).toMatch(/km\/s/);
     expect(r.errors.line).toBeDefined();
-    expect(r.settings.optic.fNumber).toBe(2.2);
+    expect(r.settings.optic.fNumber).toBe(2.5);
     expect(r.settings.nEff).toBeNull();
     expect(r.settings.preShiftNm).toBe(0);
     expect(r.settings.line).toEqual({ id: 'OIII' });
