@@ -24,6 +24,9 @@ export default async function TokensPage() {
           A token lets a script on your test bench send curves as you, with <code className="figures">Authorization: Bearer …</code>, on every
           submission route. Revoke one the moment a machine is retired or the token may have leaked.
         </p>
+        <p className="text-muted">
+          Every route, its fields and its answers are in the <Link href="/docs/api" className="text-accent underline underline-offset-2">API reference</Link>.
+        </p>
       </header>
       <TokensPanel initial={rows} />
     </div>

@@ -1,0 +1,121 @@
+/**
+ * The shapes the handlers answer with, written once as zod so the OpenAPI
+ * document shows them and the coverage test checks real answers against them
+ * (tests/integration/openapi.test.ts). Loose objects: a field added to an answer
+ * never breaks a client, so the schemas name what a client may rely on.
+ */
+import { z } from 'zod';
+
+const nm = z.number().describe('nm, standard air');
+const fraction = z.number().min(0).max(1);
+const points = z.object({ wavelengthNm: z.array(z.number()), transmission: z.array(z.number()) });
+
+export const errorBody = z.object({
+  error: z.string().describe('One readable sentence: what is wrong and where.'),
+  details: z.array(z.looseObject({ message: z.string(), field: z.string().optional(), line: z.number().int().optional() })),
+});
+
+export const curvePoints = points;
+
+export const searchItem = z.looseObject({
+  id: z.number().int(),
+  title: z.string(),
+  label: z.string(),
+  maker: z.string().nullable(),
+  lines: z.array(z.string()),
+  cwlNm: nm.nullable(),
+  fwhmNm: z.number().nullable(),
+  peakT: fraction,
+  status: z.string(),
+  instrument: z.string(),
+  aoiDeg: z.number(),
+  throughput: fraction.optional().describe('Line throughput on the named optic (fitness searches only).'),
+  speedEquivalentFNumber: z.number().nullable().optional(),
+});
+
+export const searchResult = z.looseObject({
+  items: z.array(searchItem),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+  sort: z.string(),
+  dir: z.enum(['asc', 'desc']),
+  facets: z.looseObject({}),
+});
+
+export const curveDetail = z.looseObject({
+  id: z.number().int(),
+  label: z.string(),
+  lines: z.array(z.string()),
+  status: z.string(),
+});
+
+export const curveDetailWithPoints = curveDetail.extend({ points });
+
+export const line = z.object({ id: z.string(), name: z.string(), airNm: nm, vacuumNm: z.number() });
+export const lineList = z.array(line);
+
+export const coneResult = z.looseObject({
+  lines: z.array(
+    z.looseObject({
+      id: z.string().nullable(),
+      wavelengthNm: z.number(),
+      collimated: fraction,
+      throughput: fraction,
+      speedEquivalentFNumber: z.number().nullable(),
+    }),
+  ),
+  bestPreShift: z.object({ nm: z.number(), throughput: fraction }).nullable(),
+  neighbours: z.array(z.looseObject({})),
+  contrast: z.number().nullable(),
+  angleHistogram: z.array(z.object({ deg: z.number(), weight: z.number() })),
+  coneCurve: points.optional(),
+  warnings: z.array(z.string()),
+});
+
+export const neffResult = z.object({ nEff: z.number(), cwl0Nm: z.number(), rmsResidualNm: z.number() });
+
+export const previewResult = z.looseObject({
+  points,
+  assumed: z.looseObject({}).nullable(),
+  metrics: z.looseObject({ peakT: z.number(), cwlNm: z.number().nullable(), fwhmNm: z.number().nullable() }),
+  checks: z.array(z.looseObject({ code: z.string(), level: z.enum(['info', 'warn', 'error']), message: z.string() })),
+  warnings: z.array(z.string()),
+});
+
+export const optic = z.looseObject({
+  id: z.number().int(),
+  name: z.string(),
+  isExample: z.boolean(),
+  mine: z.boolean(),
+  fNumber: z.number(),
+  obstruction: z.number(),
+  fieldAngleDeg: z.number(),
+  apertureMm: z.number().nullable(),
+  focalLengthMm: z.number().nullable(),
+  derived: z.object({ fNumber: z.boolean(), obstruction: z.boolean(), fieldAngleDeg: z.boolean() }),
+});
+export const opticList = z.object({ items: z.array(optic), total: z.number().int() });
+
+export const submissionCreated = z.looseObject({
+  id: z.number().int(),
+  status: z.string(),
+  checks: z.array(z.looseObject({ code: z.string(), level: z.string(), message: z.string() })),
+  curveIds: z.array(z.number().int()),
+});
+export const submissionList = z.looseObject({ items: z.array(z.looseObject({ id: z.number().int(), status: z.string() })), total: z.number().int() });
+export const submissionDetail = z.looseObject({ id: z.number().int(), status: z.string() });
+export const reviewResult = z.looseObject({ status: z.string() });
+export const note = z.looseObject({});
+
+export const tokenCreated = z.object({ id: z.number().int(), name: z.string(), token: z.string().describe('Shown once; only its hash is stored.') });
+export const tokenList = z.object({
+  items: z.array(z.looseObject({ id: z.number().int(), name: z.string(), prefix: z.string(), createdAt: z.string(), lastUsedAt: z.string().nullable(), revokedAt: z.string().nullable() })),
+});
+
+export const flag = (name: string) => z.object({ [name]: z.literal(true) });
+export const registered = z.object({ id: z.string(), email: z.string(), confirmationSent: z.literal(true) });
+export const userChanged = z.looseObject({ id: z.string(), role: z.string() });
+export const csrf = z.object({ csrfToken: z.string() });
+export const session = z.looseObject({});
+export const openApiDocument = z.looseObject({ openapi: z.string(), paths: z.looseObject({}) });
