@@ -45,9 +45,30 @@ export const searchResult = z.looseObject({
 
 export const curveDetail = z.looseObject({
   id: z.number().int(),
+  title: z.string(),
   label: z.string(),
-  lines: z.array(z.string()),
+  maker: z.string().nullable(),
+  lines: z.array(z.object({ id: z.string(), name: z.string(), wavelengthNm: nm })),
   status: z.string(),
+  revision: z.number().int(),
+  licence: z.string(),
+  nominal: z.object({ cwlNm: z.number().nullable(), fwhmNm: z.number().nullable(), preShiftNm: z.number().nullable() }),
+  method: z.looseObject({}),
+  instrument: z.string(),
+  aoiDeg: z.number(),
+  derived: z.looseObject({
+    peakT: fraction,
+    cwlNm: z.number().nullable(),
+    fwhmNm: z.number().nullable(),
+    meanInBandT: z.number().nullable(),
+    effectiveBandwidthNm: z.number().nullable(),
+    blockingOd: z.number().nullable(),
+    nEff: z.number().nullable(),
+    pointCount: z.number().int(),
+  }),
+  reviews: z.array(z.looseObject({ kind: z.string(), note: z.string(), at: z.string() })),
+  citation: z.string(),
+  links: z.looseObject({ self: z.string(), points: z.string(), csv: z.string() }),
 });
 
 export const curveDetailWithPoints = curveDetail.extend({ points });
