@@ -154,7 +154,7 @@ export function FilterPanel(props: {
         ) : null}
         <div className="grid grid-cols-2 gap-2">
           <NumberInput name="fNumber" label="f-number" value={q.fNumber} onCommit={set('fNumber')} placeholder="e.g. 2.5" />
-          <NumberInput name="obstruction" label="Obstruction" value={q.obstruction} onCommit={set('obstruction')} placeholder="e.g. 0.4" />
+          <NumberInput name="obstruction" label="Obstruction" value={q.obstruction} onCommit={set('obstruction')} placeholder="e.g. 0.36" />
           <NumberInput name="nEff" label="Effective index" value={q.nEff} onCommit={set('nEff')} placeholder="own/2.0" />
           <NumberInput name="fieldAngleDeg" label="Field angle" value={q.fieldAngleDeg} onCommit={set('fieldAngleDeg')} suffix="°" placeholder="0" />
         </div>

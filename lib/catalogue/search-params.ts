@@ -27,7 +27,7 @@ const num = (what: string, min: number, max: number, unit = '') =>
       .refine(Number.isFinite, `${what} must be a finite number`)
       .refine((v) => v >= min && v <= max, `${what} must be between ${min} and ${max}${unit}`)
       .optional(),
-  );
+  ).describe(`${min}–${max}${unit}`);
 
 const text = (max: number) =>
   z.preprocess((v) => (typeof v === 'string' ? v.trim() || undefined : v), z.string().max(max, `at most ${max} characters`).optional());

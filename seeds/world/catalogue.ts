@@ -138,7 +138,7 @@ function optic(
 }
 
 export const OPTICS: readonly DemoOptic[] = [
-  optic('Obstructed astrograph f/2.5', 'A generic f/2.5 astrograph with a 0.36 central obstruction; chief ray reaches 8° at the field edge (demo).', 200, 500, 72, 8),
+  optic('Obstructed astrograph f/2.5', 'A generic f/2.5 astrograph with a 0.36 central obstruction; chief ray reaches 6° at the field edge (demo).', 200, 500, 72, 6),
   optic('f/1.6 camera lens', 'A generic fast camera lens with the filter behind the rear element; unobstructed, 12° chief ray at the field edge (demo).', 50, 80, 0, 12),
   optic('Corrector-plate system, camera at focus', 'A generic f/1.8 corrector-plate system, 240 mm aperture, with the camera body in the beam at focus: 0.42 obstruction (demo).', 240, 432, 100.8, 3),
   optic('Unobstructed refractor f/3.6', 'A generic f/3.6 refractor with a flattening reducer; unobstructed (demo).', 90, 324, 0, 4),

@@ -147,7 +147,7 @@ describe('people, makers, labs and optics', () => {
       expect(o.fNumber).toBeGreaterThanOrEqual(0.5);
     }
     const fast = world.optics.find((o) => o.name === 'Obstructed astrograph f/2.5');
-    expect(fast).toMatchObject({ fNumber: 2.5, obstruction: 0.36, fieldAngleDeg: 8 });
+    expect(fast).toMatchObject({ fNumber: 2.5, obstruction: 0.36, fieldAngleDeg: 6 });
     // The corrector-plate system with the camera at focus: 432/240 = f/1.8, 100.8/240 = 0.42 (by hand).
     const corrector = world.optics.find((o) => o.name.startsWith('Corrector-plate system'));
     expect(corrector).toMatchObject({ apertureMm: 240, fNumber: 1.8, obstruction: 0.42 });
