@@ -1,4 +1,4 @@
-// Posts JSON and turns an API.md error body into a message and per-field errors.
+// Posts JSON and turns an error body (docs/api.md §Errors) into a message and per-field errors.
 export type ApiFailure = { error: string; details?: { field?: string; line?: number; message: string }[] };
 
 export async function postJson<T>(url: string, body: unknown, method = 'POST'): Promise<{ ok: true; data: T } | { ok: false; status: number; failure: ApiFailure }> {

@@ -18,7 +18,7 @@ export function SolarWords() {
   );
 }
 
-/** PRODUCT.md: near any solar-looking use, Hα especially. */
+/** docs/product.md §Cautions: near any solar-looking use, Hα especially. */
 export function SolarCaution({ compact = false }: { compact?: boolean }) {
   return (
     <aside role="note" aria-label="Solar caution" className={`flex gap-2 rounded-card border border-wait/50 bg-wait/10 px-3 py-2 ${compact ? 'text-xs' : 'text-sm'}`} data-testid="solar-caution">
@@ -30,7 +30,7 @@ export function SolarCaution({ compact = false }: { compact?: boolean }) {
   );
 }
 
-/** PRODUCT.md: model results are estimates. */
+/** docs/product.md §Cautions: model results are estimates. */
 export function ModelCaution() {
   return (
     <p className="text-xs text-muted" role="note">

@@ -1,6 +1,6 @@
 import { SolarWords, WarningMark } from '@/components/catalogue/solar-caution';
 
-/** The cautions PRODUCT.md asks for beside model results. */
+/** The cautions docs/product.md §Cautions asks for beside model results. */
 export function StudyCautions() {
   return (
     <aside aria-label="Cautions" className="rounded-card border border-rule bg-panel px-4 py-3 text-sm" data-testid="study-cautions">

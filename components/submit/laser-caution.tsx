@@ -1,4 +1,4 @@
-/** PRODUCT.md: the upload page reminds bench users of laser safety. */
+/** docs/product.md §Cautions: the upload page reminds bench users of laser safety. */
 export function LaserCaution() {
   return (
     <aside role="note" aria-label="Safety" className="flex gap-3 rounded-card border border-wait/60 bg-wait/10 p-3 text-sm">

@@ -38,7 +38,7 @@ function Section({ title, children, id }: { title: string; id: string; children:
   );
 }
 
-/** The filter and its test method: the fields of PRODUCT.md, each with its reason beside it. */
+/** The filter and its test method: the fields of docs/product.md §What a curve carries, each with its reason beside it. */
 export function MetadataFields({ form, idPrefix = 'm', fileCount }: { form: UseFormReturn<MetadataForm>; idPrefix?: string; fileCount: number }) {
   const { register, formState } = form;
   const errors = formState.errors;

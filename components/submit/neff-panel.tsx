@@ -8,7 +8,7 @@ import { fitNeff, type NeffFit } from './preview-api';
 
 export type AngleCwl = { name: string; aoiDeg: number; cwlNm: number };
 
-/** The effective index fitted from the set's CWLs (MODEL.md §7), refitted whenever an AOI or a preview changes. */
+/** The effective index fitted from the set's CWLs (docs/model.md §Effective index), refitted whenever an AOI or a preview changes. */
 export function NeffPanel({ points }: { points: AngleCwl[] }) {
   const [outcome, setOutcome] = useState<{ key: string; fit?: NeffFit; error?: string }>();
   const key = JSON.stringify(points.map((p) => [p.aoiDeg, p.cwlNm]));
@@ -99,7 +99,7 @@ export function NeffPanel({ points }: { points: AngleCwl[] }) {
               })}
             </tbody>
           </table>
-          <p className="text-xs text-muted">Fitted by least squares to λ² = a + b·sin²θ (MODEL.md §7); coatings usually sit between 1.5 and 2.3.</p>
+          <p className="text-xs text-muted">Fitted by least squares to λ² = a + b·sin²θ (docs/model.md §Effective index); coatings usually sit between 1.5 and 2.3.</p>
         </>
       ) : (
         <p className="text-sm text-muted" role="status">Fitting…</p>

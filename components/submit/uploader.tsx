@@ -15,7 +15,7 @@ export const ALLOWED_TYPES = ['.csv', '.tsv', '.txt', '.dat', '.asc', 'text/*'];
 export const MAX_FILE_BYTES = 5 * 1024 * 1024;
 export const MAX_FILES = 20;
 
-/** A thrown error carrying the API.md body, so the page can map it back onto fields and files. */
+/** A thrown error carrying the error body of docs/api.md §Errors, so the page can map it back onto fields and files. */
 export class UploadRefused extends Error {
   constructor(
     public status: number,

@@ -1,6 +1,6 @@
 import { parseSearchParams } from './search-params';
 
-/** The compare board shows at most eight curves (DESIGN.md: never more than 8 series). */
+/** The compare board shows at most eight curves (docs/design.md §Charts: never more than 8 series). */
 export const MAX_COMPARE = 8;
 
 /** The optic a catalogue search used, carried to the compare board so its throughputs are for the same optic. */

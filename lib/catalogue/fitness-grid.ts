@@ -3,7 +3,7 @@
  * "keeps ≥ 85 % of Hα at f/2.5 with a 0.36 obstruction" is a short weighted
  * sum of stored numbers per curve instead of a cone model per curve.
  *
- * Why this shape. In the cone model (MODEL.md §3–6) a ray whose incidence has
+ * Why this shape. In the cone model (docs/model.md §Angle shift to §Throughput) a ray whose incidence has
  * sin²θ = q sees the measured curve at x = s_m·λ·g, g = 1/sqrt(1 − q/n²); the
  * engine spreads each pupil bin's light evenly in g. So for ANY optic, field
  * angle and n_eff, τ is the mean of T over x = s_m·λ·(1 + r), r ≥ 0, weighted by
@@ -30,7 +30,7 @@ import { findLine } from '@/lib/engine/lines';
 import { buildPupil, type Pupil } from '@/lib/engine/pupil';
 import type { CurvePoints, Optic } from '@/lib/engine/types';
 
-/** n_eff used when a search names none and the curve has no fitted value (the middle of 1.8–2.3, typical of hard-coated narrowband filters, MODEL.md §3). */
+/** n_eff used when a search names none and the curve has no fitted value (the middle of 1.8–2.3, typical of hard-coated narrowband filters, docs/model.md §Angle shift). */
 export const DEFAULT_N_EFF = 2.0;
 
 /** Interval width of each level, as a fraction of the line wavelength (level 0 ≈ 0.066 nm at Hα). */

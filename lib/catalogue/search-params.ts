@@ -1,5 +1,5 @@
 /**
- * The catalogue's query parameters (API.md, GET /api/curves): one zod schema for
+ * The catalogue's query parameters (docs/api.md §Search parameters, GET /api/curves): one zod schema for
  * the route handler, the export routes and the /curves page, which keeps its
  * whole state in the URL so a search is a link.
  */

@@ -1,5 +1,5 @@
 /**
- * The cone model (MODEL.md §3–6). A ray at incidence θ sees the passband scaled
+ * The cone model (docs/model.md §Angle shift to §Throughput). A ray at incidence θ sees the passband scaled
  * by s(θ) = sqrt(1 − sin²θ / n_eff²), so with g = 1/s and the measured curve
  * T_m taken at AOI θm,
  *   T_θ(λ) = T_m(s_m · (λ·g − Δ)),
@@ -19,7 +19,7 @@ import type { CurvePoints, ShiftParams } from './types';
 const DEG = Math.PI / 180;
 /** Reference temperature when a temperature is given without one, °C (room temperature). */
 export const DEFAULT_REF_TEMP_C = 20;
-/** Granularity of the best pre-shift, nm (MODEL.md §6). */
+/** Granularity of the best pre-shift, nm (docs/model.md §Throughput). */
 export const PRESHIFT_STEP_NM = 0.01;
 /** Above this many 0.01 nm candidates the search goes coarse-then-refine. */
 const MAX_EXHAUSTIVE_STEPS = 6000;
@@ -56,7 +56,7 @@ export function temperatureShiftNm(p: ShiftParams): number {
   return p.tempCoeffNmPerC * (p.tempC - (p.refTempC ?? DEFAULT_REF_TEMP_C));
 }
 
-/** Total Δ = pre-shift + k·(t − t_ref), nm toward the red (MODEL.md §4). */
+/** Total Δ = pre-shift + k·(t − t_ref), nm toward the red (docs/model.md §Pre-shift). */
 export function totalShiftNm(p: ShiftParams): number {
   return (p.preShiftNm ?? 0) + temperatureShiftNm(p);
 }
@@ -303,7 +303,7 @@ export function normalIncidenceFwhm(c: PreparedCurve, params: ShiftParams): numb
 }
 
 /**
- * The pre-shift Δ in [−FWHM, +2·FWHM] that maximises τ at the line (MODEL.md §6).
+ * The pre-shift Δ in [−FWHM, +2·FWHM] that maximises τ at the line (docs/model.md §Throughput).
  * `params.preShiftNm` is replaced by each candidate; any temperature shift stays
  * on top. Every 0.01 nm candidate is evaluated (one sweep), so several maxima
  * cannot mislead it; very wide ranges fall back to a 4000-point scan refined by

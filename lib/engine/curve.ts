@@ -1,6 +1,6 @@
 /**
  * A measured curve as the model uses it: sorted typed arrays, linear
- * interpolation between samples, zero outside the measured range (MODEL.md §1),
+ * interpolation between samples, zero outside the measured range (docs/model.md §Curve),
  * plus the running integral so the mean of T over any interval is exact.
  */
 

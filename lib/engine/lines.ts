@@ -1,5 +1,5 @@
 /**
- * Emission-line catalogue (MODEL.md §8) and the wavelength conversions that go
+ * Emission-line catalogue (docs/model.md §Lines) and the wavelength conversions that go
  * with it. Catalogue wavelengths are standard air; vacuum values are derived by
  * inverting the IAU air/vacuum relation so the two can never disagree.
  */

@@ -1,5 +1,5 @@
 /**
- * Derived numbers of a curve, exactly as MODEL.md §2 defines them. Anything that
+ * Derived numbers of a curve, exactly as docs/model.md §Derived numbers defines them. Anything that
  * cannot be defined comes back as null with a sentence in `warnings`.
  */
 

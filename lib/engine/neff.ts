@@ -1,5 +1,5 @@
 /**
- * Effective index from one filter measured at several AOIs (MODEL.md §7):
+ * Effective index from one filter measured at several AOIs (docs/model.md §Effective index):
  * with λ(θ) = λ0·sqrt(1 − sin²θ/n²), λ² is linear in sin²θ,
  *   λ² = a + b·sin²θ,  λ0 = sqrt(a),  n_eff = sqrt(−a/b).
  */

@@ -3,7 +3,7 @@ import { ZodError } from 'zod';
 
 export type ErrorDetail = { line?: number; field?: string; message: string };
 
-// Every refusal carries an API.md status and one readable sentence.
+// Every refusal carries a status of docs/api.md §Errors and one readable sentence.
 export class HttpError extends Error {
   constructor(
     public status: number,

@@ -16,7 +16,7 @@ export const opticSchema = z.object({
   mapping: z.enum(['tangent', 'sine']).optional(),
 });
 
-// API.md, POST /api/model/cone.
+// docs/api.md, POST /api/model/cone.
 export const coneRequestSchema = z
   .object({
     curveId: z.number().int().positive().optional(),

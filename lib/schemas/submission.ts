@@ -7,7 +7,7 @@ export const INSTRUMENTS = ['spectrophotometer', 'spectrograph', 'monochromator'
 const positive = (what: string) => z.number({ error: `${what} must be a number` }).positive(`${what} must be above 0`);
 const optionalText = (max: number) => z.string().trim().max(max).optional().transform((v) => (v ? v : undefined));
 
-// One schema for the upload form and the route handler (API.md, Submissions).
+// One schema for the upload form and the route handler (docs/api.md; POST /api/submissions in /api/openapi.json).
 export const methodSchema = z
   .object({
     instrument: z.enum(INSTRUMENTS, { error: 'Choose the instrument kind' }),

@@ -16,7 +16,7 @@ import type { AngleBin, ConeModelInput, CurvePoints, Optic, ShiftParams } from '
 import { explorerGrid, type ExplorerGrid, type ExplorerMarker } from './explorer';
 import type { CurveStudy, NeffSource, Series, StudyCurve, StudySettings } from './types';
 
-/** Used when neither the reader nor a fitted set gives an effective index (MODEL.md §3: mid-range of hard-coated narrowband filters). */
+/** Used when neither the reader nor a fitted set gives an effective index (docs/model.md §Angle shift: mid-range of hard-coated narrowband filters). */
 export const DEFAULT_N_EFF = 2.0;
 
 export const F_SWEEP = { from: 1, to: 10, step: 0.2 } as const;
@@ -25,7 +25,7 @@ const FIELD_STEPS = 24;
 const SHIFT_STEPS = 160;
 /** Same threshold as the engine: below it the speed-equivalent f-number is infinite. */
 const ZERO_THROUGHPUT = 1e-12;
-/** Field range shown when the optic has no chief-ray angle: where fast lenses reach (MODEL.md §5). */
+/** Field range shown when the optic has no chief-ray angle: where fast lenses reach (docs/model.md §Pupil). */
 export const DEFAULT_FIELD_SPAN_DEG = 10;
 
 export function nEffFor(curve: StudyCurve, s: StudySettings): { value: number; source: NeffSource } {

@@ -2,7 +2,7 @@
  * The bandwidth / pre-shift explorer: line throughput of an ideal flat-top
  * passband (T = 1 inside, 0 outside, at normal incidence) against its FWHM and
  * its pre-shift, for one optic and one line. A ray at θ passes the line when
- * λ/s(θ) falls inside [c − w/2, c + w/2] with c = λ + Δ (MODEL.md §3), which is
+ * λ/s(θ) falls inside [c − w/2, c + w/2] with c = λ + Δ (docs/model.md §Angle shift), which is
  * an interval of sin²θ; τ is the pupil's weight inside that interval, read from
  * the pupil's cumulative weight in sin²θ. No curve is sampled, so the map is
  * exact up to the pupil's binning.

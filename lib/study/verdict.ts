@@ -29,7 +29,7 @@ export interface Verdict {
   warnings: string[];
 }
 
-/** Typical effective indices, said wherever the default is used (MODEL.md §3). */
+/** Typical effective indices, said wherever the default is used (docs/model.md §Angle shift). */
 export const NEFF_RANGES_TEXT =
   'common coatings sit at 1.5–1.9 (W. J. Smith, Modern Optical Engineering, ch. 11); hard-coated narrowband filters often at 1.8–2.3 (common practice)';
 

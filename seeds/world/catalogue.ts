@@ -7,7 +7,7 @@ import type { DemoLab, DemoMaker, DemoOptic, DemoPerson, Instrument, LineId } fr
 
 export const DEMO_NOTICE = 'Demo data: invented makers, places, people and generated curves.';
 
-/** Standard air wavelengths (nm) of the catalogued lines, MODEL.md §8. */
+/** Standard air wavelengths (nm) of the catalogued lines, docs/model.md §Lines. */
 export const LINE_AIR_NM: Readonly<Record<LineId, number>> = {
   Ha: 656.28,
   Hb: 486.13,

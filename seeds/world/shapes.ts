@@ -6,7 +6,7 @@
  * which is exactly T_peak/2 at λc ± FWHM/2, times a small in-band ripple, plus an
  * out-of-band blocking floor.
  *
- * Angle: MODEL.md §3, s(θ) = sqrt(1 − sin²θ / n_eff²), T_θ(λ) = T_0(λ / s(θ)).
+ * Angle: docs/model.md §Angle shift, s(θ) = sqrt(1 − sin²θ / n_eff²), T_θ(λ) = T_0(λ / s(θ)).
  */
 import type { CurvePoints, PassbandBand } from './types';
 
@@ -22,7 +22,7 @@ export interface PassbandParams {
   blockingFloor?: number;
 }
 
-/** The angle scale factor s(θ) of MODEL.md §3. */
+/** The angle scale factor s(θ) of docs/model.md §Angle shift. */
 export function angleScale(aoiDeg: number, nEff: number): number {
   if (!Number.isFinite(nEff) || nEff < 1 || nEff > 4) {
     throw new RangeError(`effective index ${nEff} is outside 1.0–4.0`);
@@ -63,7 +63,7 @@ export function multiCavityPassband(params: PassbandParams): (wavelengthNm: numb
 }
 
 /**
- * Bring a curve measured at normal incidence to the angle aoiDeg (MODEL.md §3):
+ * Bring a curve measured at normal incidence to the angle aoiDeg (docs/model.md §Angle shift):
  * T_θ(λ) = T_0(λ / s), i.e. the sample (λ, T) of T_0 becomes the sample (λ·s, T)
  * of T_θ. Exact — no resampling; wavelengths stay strictly increasing.
  */

@@ -3,7 +3,7 @@
  * no framework imports, so the seed runner, tests and scripts can share it.
  */
 
-/** Emission-line ids of the public API (MODEL.md §8). */
+/** Emission-line ids of the public API (docs/model.md §Lines). */
 export type LineId =
   | 'Ha'
   | 'Hb'

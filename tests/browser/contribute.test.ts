@@ -10,7 +10,7 @@ import { makeUser } from '../support/users';
 import { angleScale, curveCsv, HA_NM } from '../integration/submissions-fixtures';
 import { closeSequelize } from '@/db/connection';
 
-// One filter measured at two angles, generated with n_eff = 2.0 (MODEL.md §3): the
+// One filter measured at two angles, generated with n_eff = 2.0 (docs/model.md §Angle shift): the
 // fitted effective index must come back as 2.0 and the normal-incidence CWL as 656.3 nm.
 const N_EFF = 2.0;
 const ANGLES = [0, 15];
@@ -143,7 +143,7 @@ describe('a curve set from the bench to the public library', () => {
     await page.locator('#m-method\\.resolutionNm').fill('0.1');
     await page.locator('#m-method\\.beam').selectOption('collimated');
     const name = path.basename(file);
-    // What API.md promises for a 422: a sentence, then per-field and per-line details.
+    // What docs/api.md §Errors promises for a 422: a sentence, then per-field and per-line details.
     await page.route('**/api/submissions', (route) => route.fulfill({
       status: 422,
       contentType: 'application/json',

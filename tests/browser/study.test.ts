@@ -24,7 +24,7 @@ async function cone(body: Record<string, unknown>): Promise<Cone> {
   return (await res.json()) as Cone;
 }
 
-// Percent to one decimal, as DESIGN.md asks for transmission.
+// Percent to one decimal, as docs/design.md §Type asks for transmission.
 const pct = (f: number) => `${(Math.round(f * 1000) / 10).toFixed(1)} %`;
 
 /** Waits for the study to settle after an input changed, then reads the first verdict. */

@@ -142,7 +142,7 @@ describe('fitness for an optic', () => {
       const model = await json<{ lines: { id: string; throughput: number; speedEquivalentFNumber: number }[] }>(res);
       expect(item.throughput).toBeCloseTo(model.lines[0].throughput, 10);
       expect(item.speedEquivalentFNumber).toBeCloseTo(model.lines[0].speedEquivalentFNumber, 10);
-      // MODEL.md §6: N_eq = N · sqrt(T_peak / τ)
+      // docs/model.md §Throughput: N_eq = N · sqrt(T_peak / τ)
       expect(item.speedEquivalentFNumber!).toBeCloseTo(2.5 * Math.sqrt(item.peakT / item.throughput!), 8);
     }
   });

@@ -7,7 +7,7 @@ import { closeSequelize } from '@/db/connection';
 afterAll(() => closeSequelize());
 
 describe('public catalogue of lines', () => {
-  it('serves MODEL.md §8 with vacuum values', async () => {
+  it('serves docs/model.md §Lines with vacuum values', async () => {
     const res = await anonymous().fetch('/api/lines');
     expect(res.status).toBe(200);
     const lines = await json<{ id: string; airNm: number; vacuumNm: number }[]>(res);

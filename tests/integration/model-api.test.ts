@@ -67,7 +67,7 @@ describe('POST /api/model/cone', () => {
 });
 
 describe('POST /api/model/neff', () => {
-  it('recovers a known effective index from CWLs at several angles (MODEL.md §7)', async () => {
+  it('recovers a known effective index from CWLs at several angles (docs/model.md §Effective index)', async () => {
     // Thin-film angle shift (Macleod; Smith): λ(θ) = λ0·sqrt(1 − sin²θ/n²), here λ0 656.3 nm, n 1.9.
     const n = 1.9;
     const measurements = [0, 5, 10, 15].map((aoiDeg) => ({ aoiDeg, cwlNm: 656.3 * Math.sqrt(1 - Math.sin((aoiDeg * Math.PI) / 180) ** 2 / n ** 2) }));

@@ -45,7 +45,7 @@ async function cone(client: Client, body: Record<string, unknown>): Promise<Cone
   return json<ConeResult>(res);
 }
 
-// Percent to one decimal, written here rather than borrowed from the app (DESIGN.md: transmission in % to 1 decimal).
+// Percent to one decimal, written here rather than borrowed from the app (docs/design.md §Type: transmission in % to 1 decimal).
 const pct = (f: number) => `${(Math.round(f * 1000) / 10).toFixed(1)} %`;
 
 async function curveRow(id: number) {
@@ -121,7 +121,7 @@ describe('the study page shows what POST /api/model/cone answers for the same in
     });
     expectSame(verdicts[0], api);
     expect(verdicts[0].items.get('neff')!.raw).toBeCloseTo(row.n_eff!, 12);
-    // Δ = pre-shift + k·(t − t_ref) (MODEL.md §4), computed here by hand.
+    // Δ = pre-shift + k·(t − t_ref) (docs/model.md §Pre-shift), computed here by hand.
     expect(verdicts[0].items.get('shift')!.raw).toBeCloseTo(0.75 + 0.016 * (-5 - refTempC), 12);
   });
 
@@ -138,7 +138,7 @@ describe('the study page shows what POST /api/model/cone answers for the same in
       radialVelocityKms: 120,
     });
     expectSame(verdicts[0], api);
-    // λ(1 + v/c) with c = 299 792.458 km/s (MODEL.md §8).
+    // λ(1 + v/c) with c = 299 792.458 km/s (docs/model.md §Lines).
     expect(api.lines[0].wavelengthNm).toBeCloseTo(656.1 * (1 + 120 / 299792.458), 9);
   });
 

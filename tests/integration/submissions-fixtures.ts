@@ -1,7 +1,7 @@
 // Test curves made on the spot: a Butterworth passband, the textbook idealisation of a
 // multi-cavity interference filter, T(λ) = T_peak / (1 + ((λ − CWL)/(FWHM/2))^(2n)),
 // which is exactly half of its peak at CWL ± FWHM/2. A curve "measured" at AOI θ is the
-// normal-incidence curve scaled by s(θ) = sqrt(1 − sin²θ / n_eff²) (MODEL.md §3).
+// normal-incidence curve scaled by s(θ) = sqrt(1 − sin²θ / n_eff²) (docs/model.md §Angle shift).
 
 export const HA_NM = 656.3;
 

@@ -28,7 +28,7 @@ async function tables() {
   return row;
 }
 
-/** Sends the request, expects the status and an API.md error body, and proves nothing was written. */
+/** Sends the request, expects the status and an error body (docs/api.md §Errors), and proves nothing was written. */
 async function refused(send: () => Promise<Response>, status: number, message?: RegExp) {
   const before = await tables();
   const res = await send();
@@ -86,9 +86,9 @@ describe('POST /api/submissions', () => {
     expect(result.status).toBe('submitted');
     expect(result.curveIds).toHaveLength(2);
     const curves = await query<{ aoi_deg: number; cwl_nm: number; n_eff: number; status: string }>(`SELECT aoi_deg, cwl_nm, n_eff, status FROM curves WHERE submission_id = :id ORDER BY aoi_deg`, { id: result.id });
-    // MODEL.md §3: the passband measured at 15° sits at 656.3 nm · sqrt(1 − sin²15°/2²).
+    // docs/model.md §Angle shift: the passband measured at 15° sits at 656.3 nm · sqrt(1 − sin²15°/2²).
     expect(curves.map((c) => c.cwl_nm)).toEqual([expect.closeTo(HA_NM, 1), expect.closeTo(HA_NM * angleScale(15, 2), 1)]);
-    // MODEL.md §7 recovers the index the files were generated with.
+    // docs/model.md §Effective index recovers the index the files were generated with.
     expect(curves[0].n_eff).toBeCloseTo(2, 1);
     expect(curves.every((c) => c.status === 'submitted')).toBe(true);
     const stored = await query<{ original_name: string; sha256: string; content: Buffer }>(`SELECT original_name, sha256, content FROM submission_files WHERE submission_id = :id ORDER BY aoi_deg`, { id: result.id });

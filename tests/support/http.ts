@@ -1,4 +1,4 @@
-// Talks to the running test server exactly as outside scripts do (API.md).
+// Talks to the running test server exactly as outside scripts do (docs/api.md).
 export const BASE = process.env.TEST_BASE_URL ?? 'http://127.0.0.1:3100';
 export const DEMO_PASSWORD = process.env.DEMO_PASSWORD ?? 'bandcone-demo';
 

@@ -24,7 +24,7 @@ const verified = world.curves.filter((c) => c.status === 'verified');
 const grids = new Map(verified.map((c) => [c.key, computeFitnessGrid({ points: c.points, aoiDeg: c.method.aoiDeg, nEff: c.trueNEff ?? null, lines: c.lines })]));
 
 /**
- * τ straight from the definition in MODEL.md §5–6, written here without the
+ * τ straight from the definition in docs/model.md §Pupil and §Throughput, written here without the
  * engine: a uniformly lit annular pupil, each point's ray from the tangent
  * mapping, its incidence angle, the passband scaled by s(θ), and the
  * ρ dρ dψ-weighted mean by the midpoint rule in u = ρ² (where the weight is even).
@@ -75,7 +75,7 @@ function optics(seed: number, count: number, mode: 'axis' | 'neff' | 'field'): F
   });
 }
 
-describe('fitness grid against the definition of line throughput (MODEL.md §5–6)', () => {
+describe('fitness grid against the definition of line throughput (docs/model.md §Pupil and §Throughput)', () => {
   // Narrow, pre-shifted, wide, dual-band and off-normal units: the cases where interpolation could go wrong.
   const picks = ['Vantrell Quillon Hα 2.5nm', 'Tessaly & Hume Corvelle Hα 2.8nm', 'Ostrowen Wideleaf OIII 10nm', 'Brisquenne Leewing Hα 4.5nm']
     .map((label) => verified.find((c) => c.label === label && c.method.aoiDeg === 0))

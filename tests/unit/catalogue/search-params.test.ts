@@ -12,7 +12,7 @@ function refusal(qs: string): { field?: string; message: string } {
   throw new Error(`"${qs}" was accepted`);
 }
 
-describe('catalogue query parameters (API.md, GET /api/curves)', () => {
+describe('catalogue query parameters (docs/api.md §Search parameters, GET /api/curves)', () => {
   it('reads numbers, ids and choices from a query string and leaves empty values unset', () => {
     const p = parseSearchParams(new URLSearchParams('q=hydrogen+alpha&line=Ha&fwhmMax=5&fNumber=2.5&obstruction=0.36&minThroughput=0.85&sort=throughput&pageSize=50&cwlMin='));
     expect(p).toMatchObject({ q: 'hydrogen alpha', line: 'Ha', fwhmMax: 5, fNumber: 2.5, obstruction: 0.36, minThroughput: 0.85, sort: 'throughput', pageSize: 50 });

@@ -5,9 +5,9 @@ import { prepareCurve } from '@/lib/engine/curve';
 import type { Optic } from '@/lib/engine/types';
 import { bruteForceTaus, flatTop, gaussian, multiCavity } from './fixtures';
 
-describe('convergence: production quadrature within 1e-4 of brute-force integration (MODEL.md §6 accuracy)', () => {
+describe('convergence: production quadrature within 1e-4 of brute-force integration (docs/model.md §Accuracy)', () => {
   // Brute force: midpoint rule over the pupil (4000 × 4000 off axis, 200 000 radial
-  // nodes on axis), tracing each ray as MODEL.md §5 defines it.
+  // nodes on axis), tracing each ray as docs/model.md §Pupil defines it.
   const curves = {
     gaussian: gaussian(656.9, 1.3),
     'flat-top, 0.05 nm edges': flatTop(657.2, 4, 0.05, 0.95, 0.01, 12),

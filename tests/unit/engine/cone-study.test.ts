@@ -9,7 +9,7 @@ import { multiCavity } from './fixtures';
 const ha = multiCavity(656.28, 3, 3, { peak: 0.93, noise: 0.002, seed: 4 });
 const base = { points: ha, optic: { fNumber: 2.5, obstruction: 0.36 }, nEff: 2.05 };
 
-describe('runConeModel: the POST /api/model/cone response (API.md)', () => {
+describe('runConeModel: the POST /api/model/cone response (docs/api.md)', () => {
   it('returns exactly the documented fields', () => {
     const r = runConeModel({ ...base, lines: ['Ha'] });
     expect(Object.keys(r).sort()).toEqual(['angleHistogram', 'bestPreShift', 'contrast', 'lines', 'neighbours', 'warnings']);
@@ -30,7 +30,7 @@ describe('runConeModel: the POST /api/model/cone response (API.md)', () => {
     expect(r.lines[0].throughput).toBeCloseTo(one.throughput, 12);
     expect(r.lines[0].collimated).toBeCloseTo(one.collimated, 12);
     const peak = Math.max(...ha.transmission);
-    // N_eq = N · sqrt(T_peak / τ) (MODEL.md §6)
+    // N_eq = N · sqrt(T_peak / τ) (docs/model.md §Throughput)
     expect(r.lines[0].speedEquivalentFNumber).toBeCloseTo(2.5 * Math.sqrt(peak / one.throughput), 10);
     expect(r.bestPreShift!.throughput).toBeGreaterThanOrEqual(one.throughput);
     expect(r.angleHistogram.reduce((s, b) => s + b.weight, 0)).toBeCloseTo(1, 10);
@@ -73,7 +73,7 @@ describe('runConeModel: the POST /api/model/cone response (API.md)', () => {
     expect(r.warnings.some((w) => /No line was given/.test(w))).toBe(true);
   });
 
-  it('applies the temperature shift k·(t − t_ref) like a pre-shift (MODEL.md §4)', () => {
+  it('applies the temperature shift k·(t − t_ref) like a pre-shift (docs/model.md §Pre-shift)', () => {
     const viaTemp = runConeModel({ ...base, lines: ['Ha'], tempCoeffNmPerC: 0.02, tempC: 40, refTempC: 20 });
     const viaShift = runConeModel({ ...base, lines: ['Ha'], preShiftNm: 0.4 });
     expect(viaTemp.lines[0].throughput).toBeCloseTo(viaShift.lines[0].throughput, 12);

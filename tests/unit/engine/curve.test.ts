@@ -6,7 +6,7 @@ import { EngineInputError } from '@/lib/engine/errors';
 
 const pts = { wavelengthNm: [650, 651, 653, 654, 656], transmission: [0, 0.4, 0.8, 0.6, 0] };
 
-describe('linear interpolation, zero outside the range (MODEL.md §1)', () => {
+describe('linear interpolation, zero outside the range (docs/model.md §Curve)', () => {
   const c = prepareCurve(pts);
   it('interpolates between samples and returns samples exactly', () => {
     expect(interpolate(c, 652)).toBeCloseTo(0.6, 14);

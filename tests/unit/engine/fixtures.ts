@@ -49,7 +49,7 @@ export function multiCavity(cwl: number, fwhm: number, cavities = 3, opts: { pea
 }
 
 /**
- * τ by midpoint integration over the pupil, straight from MODEL.md §3–5 (ray
+ * τ by midpoint integration over the pupil, straight from docs/model.md §Angle shift to §Pupil (ray
  * vectors, not the engine's reformulation), using its own uniform-grid lookup.
  * ψ only enters through sin ψ, so ψ ∈ (−π/2, π/2) covers the circle twice over.
  */

@@ -13,7 +13,7 @@ import { EngineInputError } from '@/lib/engine/errors';
 
 describe('air ↔ vacuum (IAU standard, Morton 2000, ApJS 130, 403)', () => {
   it('reproduces the worked value: Hα 656.461 nm vacuum → 656.280 nm air', () => {
-    // Source: Morton 2000 formula; worked value quoted in MODEL.md §8.
+    // Source: Morton 2000 formula; worked value quoted in docs/model.md §Lines.
     expect(vacuumToAir(656.461)).toBeCloseTo(656.28, 3);
   });
 
@@ -58,14 +58,14 @@ describe('air ↔ vacuum (IAU standard, Morton 2000, ApJS 130, 403)', () => {
 });
 
 describe('catalogue', () => {
-  it('holds exactly the line ids documented in API.md, in order', () => {
+  it('holds exactly the line ids documented in docs/api.md §Conventions, in order', () => {
     expect(LINES.map((l) => l.id)).toEqual([
       'Ha', 'Hb', 'Hg', 'OIII', 'OIII-496', 'NII-658', 'NII-655', 'SII-671', 'SII-673', 'HeII', 'OI', 'ArIII', 'OII',
     ]);
     expect(EXTRA_LINES.map((l) => l.id)).toEqual(['OII-3729']);
   });
 
-  it('uses the MODEL.md §8 air wavelengths', () => {
+  it('uses the docs/model.md §Lines air wavelengths', () => {
     const air = Object.fromEntries(LINES.map((l) => [l.id, l.airNm]));
     expect(air).toMatchObject({ Ha: 656.28, Hb: 486.13, OIII: 500.68, 'NII-658': 658.35, 'NII-655': 654.8, OII: 372.6 });
   });

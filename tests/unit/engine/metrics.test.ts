@@ -3,7 +3,7 @@ import { xMedian, xMaxValue, xyIntegration, xyMaxYPoint } from 'ml-spectra-proce
 import { BLOCKING_OD_CAP, computeMetrics } from '@/lib/engine/metrics';
 import { flatTop, gaussian, multiCavity } from './fixtures';
 
-describe('half-maximum numbers (MODEL.md §2)', () => {
+describe('half-maximum numbers (docs/model.md §Derived numbers)', () => {
   it('a Gaussian passband has FWHM = 2·sqrt(2 ln 2)·σ and CWL at its centre (any statistics handbook)', () => {
     const sigma = 1.7;
     const m = computeMetrics(gaussian(656.3, sigma, 0.88, 0.01));

@@ -5,7 +5,7 @@ import { EngineInputError } from '@/lib/engine/errors';
 import { computeMetrics } from '@/lib/engine/metrics';
 import { multiCavity } from './fixtures';
 
-describe('effective index fit (MODEL.md §7; thin-film angle shift after Macleod)', () => {
+describe('effective index fit (docs/model.md §Effective index; thin-film angle shift after Macleod)', () => {
   it('recovers a known n_eff and λ0 from exact synthetic (AOI, CWL) pairs', () => {
     const pairs = [0, 5, 10, 15, 20].map((a) => ({ aoiDeg: a, cwlNm: predictCwl(656.5, 2.05, a) }));
     const fit = fitEffectiveIndex(pairs);

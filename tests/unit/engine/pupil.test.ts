@@ -63,7 +63,7 @@ describe('cone geometry (common practice)', () => {
   });
 
   it('off axis, the histogram agrees with brute-force ray counting over the pupil', () => {
-    // Independent count straight from MODEL.md §5: trace d = normalise(c + (ρcosψ e1 + ρsinψ e2)/2N).
+    // Independent count straight from docs/model.md §Pupil: trace d = normalise(c + (ρcosψ e1 + ρsinψ e2)/2N).
     const N = 1.8;
     const eps = 0.3;
     const phi = 12 * DEG;

@@ -39,7 +39,7 @@ function halfMax(points: CurvePoints): HalfMax {
   return { peakT, leftNm, rightNm, cwlNm: (leftNm + rightNm) / 2, fwhmNm: rightNm - leftNm };
 }
 
-/** MODEL.md §7: least squares λ² = a + b·sin²θ, n_eff = sqrt(−a/b), λ0 = sqrt(a). */
+/** docs/model.md §Effective index: least squares λ² = a + b·sin²θ, n_eff = sqrt(−a/b), λ0 = sqrt(a). */
 function fitEffectiveIndex(measurements: { aoiDeg: number; cwlNm: number }[]) {
   const xs = measurements.map((m) => Math.sin((m.aoiDeg * Math.PI) / 180) ** 2);
   const ys = measurements.map((m) => m.cwlNm ** 2);

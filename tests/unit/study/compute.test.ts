@@ -51,7 +51,7 @@ const settings = (over: Partial<StudySettings> = {}): StudySettings => ({
 });
 
 /**
- * Analytic reference from MODEL.md §5 alone: on axis (tangent mapping, no
+ * Analytic reference from docs/model.md §Pupil alone: on axis (tangent mapping, no
  * obstruction) tan θ = ρ/2N with the pupil uniform in ρ², so P(θ ≤ t) = tan²t·4N².
  * A flat-top at [a, b] passes the line at λ when λ/s(θ) ∈ [a, b].
  */
@@ -69,7 +69,7 @@ describe('a study of an ideal flat-top passband', () => {
     const st = studyCurve(curve, settings());
     const tau = st.onAxis.lines[0].throughput;
     expect(tau).toBeCloseTo(analyticTau(2, 2, HA + 1 - 1.5, HA + 1 + 1.5, 0.9), 3);
-    // N_eq = N·sqrt(T_peak/τ) (MODEL.md §6).
+    // N_eq = N·sqrt(T_peak/τ) (docs/model.md §Throughput).
     expect(st.onAxis.lines[0].speedEquivalentFNumber).toBeCloseTo(2 * Math.sqrt(0.9 / tau), 9);
     // A collimated beam sees the measured passband itself.
     expect(st.onAxis.lines[0].collimated).toBeCloseTo(0.9, 9);

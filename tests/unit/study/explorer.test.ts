@@ -5,7 +5,7 @@ import { explorerGrid, flatTopThroughput } from '@/lib/study/explorer';
 const DEG = Math.PI / 180;
 
 /**
- * Independent reference from MODEL.md §5 geometry alone: on axis with the tangent
+ * Independent reference from docs/model.md §Pupil geometry alone: on axis with the tangent
  * mapping, tan θ = ρ/(2N) and the pupil is uniform in ρ², so the share of light
  * with θ ≤ t is (tan²t − tan²θin)/(tan²θout − tan²θin), with tan θin = ε/(2N) and
  * tan θout = 1/(2N). The flat-top passes the rays whose λ/s(θ) lies in the band.
@@ -54,7 +54,7 @@ describe('flat-top explorer', () => {
   });
 
   it('puts the best pre-shift of a wide band near the mean cone shift on a fast optic', () => {
-    // On axis at f/2 the marginal ray meets the filter at 14.0° (MODEL.md §5, common practice).
+    // On axis at f/2 the marginal ray meets the filter at 14.0° (docs/model.md §Pupil, common practice).
     const pupil = buildPupil({ fNumber: 2, obstruction: 0 });
     expect(pupil.thetaMaxRad / DEG).toBeCloseTo(14.04, 1);
     const grid = explorerGrid(pupil, 2, 656.28);
