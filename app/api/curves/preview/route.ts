@@ -1,5 +1,6 @@
 import { NextResponse } from 'next/server';
 import { withErrors, readJson, HttpError, badRequest } from '@/lib/http/errors';
+import { POINTS_BODY_MAX, readFormCapped } from '@/lib/http/body';
 import { readCurveText, MAX_FILE_BYTES } from '@/lib/engine/reader';
 import { cleanPoints } from '@/lib/engine/curve';
 import { computeMetrics } from '@/lib/engine/metrics';
@@ -29,10 +30,7 @@ export const POST = withErrors(async (req: Request) => {
   let read: { points: { wavelengthNm: number[]; transmission: number[] }; assumed?: unknown; warnings: string[] };
   let metadata: unknown;
   if (type.startsWith('multipart/form-data')) {
-    if (Number(req.headers.get('content-length') ?? 0) > MAX_FILE_BYTES + 256 * 1024) throw new HttpError(413, 'The file is over 5 MB.');
-    const form = await req.formData().catch(() => {
-      throw badRequest('The multipart body could not be read.');
-    });
+    const form = await readFormCapped(req, MAX_FILE_BYTES + 256 * 1024, 'The file');
     const file = form.get('file');
     if (!file || typeof file === 'string') throw badRequest('Attach the data file in the "file" field.');
     if (file.size > MAX_FILE_BYTES) throw new HttpError(413, `${file.name} is ${(file.size / 1048576).toFixed(1)} MB; the limit is 5 MB.`);
@@ -41,7 +39,7 @@ export const POST = withErrors(async (req: Request) => {
     const r = readCurveText(new Uint8Array(await file.arrayBuffer()), options);
     read = { points: r.points, assumed: r.assumed, warnings: r.warnings };
   } else {
-    const body = (await readJson(req)) as { points?: unknown; metadata?: unknown };
+    const body = (await readJson(req, POINTS_BODY_MAX)) as { points?: unknown; metadata?: unknown };
     const points = pointsSchema.parse(body?.points);
     metadata = body?.metadata;
     const cleaned = cleanPoints(points);
