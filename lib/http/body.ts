@@ -87,3 +87,39 @@ export async function readFormCapped(req: Request, maxBytes: number, what = 'The
   }
   throw badRequest('The multipart body could not be read.');
 }
+
+/** No form of the API nests deeper than a handful of levels; hostile JSON nests millions deep. */
+export const JSON_MAX_DEPTH = 32;
+
+/**
+ * Whether a JSON text nests no deeper than `maxDepth`, by one linear scan that skips strings,
+ * so a deep body is refused before JSON.parse builds millions of nested arrays.
+ */
+export function jsonDepthWithin(text: string, maxDepth = JSON_MAX_DEPTH): boolean {
+  let depth = 0;
+  let inString = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (inString) {
+      if (c === 92 /* \ */) i++;
+      else if (c === 34 /* " */) inString = false;
+    } else if (c === 34) {
+      inString = true;
+    } else if (c === 91 /* [ */ || c === 123 /* { */) {
+      if (++depth > maxDepth) return false;
+    } else if (c === 93 /* ] */ || c === 125 /* } */) {
+      depth--;
+    }
+  }
+  return true;
+}
+
+/** JSON text from a client, parsed with its depth bounded first; `what` names it in the refusal. */
+export function parseJsonText(text: string, what = 'The request body'): unknown {
+  if (!jsonDepthWithin(text)) throw badRequest(`${what} nests deeper than ${JSON_MAX_DEPTH} levels; no request of this API needs that.`);
+  try {
+    return JSON.parse(text);
+  } catch {
+    throw badRequest(`${what} is not valid JSON.`);
+  }
+}

@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
 import { ZodError } from 'zod';
-import { readCapped, JSON_BODY_MAX } from './body';
+import { readCapped, parseJsonText, JSON_BODY_MAX } from './body';
 
 export type ErrorDetail = { line?: number; field?: string; message: string };
 
@@ -74,9 +74,5 @@ export async function readJson(req: Request, maxBytes = JSON_BODY_MAX): Promise<
     throw badRequest('The request body is not valid UTF-8 text; send JSON.');
   }
   if (!text.trim()) throw badRequest('The request body is empty; send JSON.');
-  try {
-    return JSON.parse(text);
-  } catch {
-    throw badRequest('The request body is not valid JSON.');
-  }
+  return parseJsonText(text);
 }

@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
 import { withErrors, readJson, HttpError, badRequest } from '@/lib/http/errors';
-import { POINTS_BODY_MAX, readFormCapped } from '@/lib/http/body';
+import { POINTS_BODY_MAX, parseJsonText, readFormCapped } from '@/lib/http/body';
 import { readCurveText, MAX_FILE_BYTES } from '@/lib/engine/reader';
 import { cleanPoints } from '@/lib/engine/curve';
 import { computeMetrics } from '@/lib/engine/metrics';
@@ -14,11 +14,7 @@ const PER_MINUTE = Number(process.env.PREVIEW_RATE_PER_MINUTE ?? 120);
 function parseJsonField(raw: FormDataEntryValue | null, what: string): unknown {
   if (raw === null || raw === '') return undefined;
   if (typeof raw !== 'string') throw badRequest(`The "${what}" field must be JSON text.`);
-  try {
-    return JSON.parse(raw);
-  } catch {
-    throw badRequest(`The "${what}" field is not valid JSON.`);
-  }
+  return parseJsonText(raw, `The "${what}" field`);
 }
 
 // Stores nothing: reads a file (or points), derives the numbers and runs the checks.
