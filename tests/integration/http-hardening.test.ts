@@ -107,9 +107,15 @@ describe('body caps while streaming (issue 10, item 7)', () => {
     });
   }
 
-  it('an announced Content-Length over the cap is refused before any of the body is read', async () => {
+  it('an announced Content-Length over the cap is refused, and a client still sending reads the 413', async () => {
     const res = await fetch(`${BASE}/api/account/reset`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'x'.repeat(300 * 1024) }) });
     expect(res.status).toBe(413);
+    const measurements = Array.from({ length: 12_000 }, (_, i) => ({ aoiDeg: i % 60, cwlNm: 656.28 - i * 1e-6 }));
+    for (let i = 0; i < 5; i++) {
+      const neff = await fetch(`${BASE}/api/model/neff`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ measurements }) });
+      expect(neff.status).toBe(413);
+      expect((await neff.json()) as { error: string }).toMatchObject({ error: expect.stringMatching(/over 256 KB/) });
+    }
   });
 
   it('a sign-in form must announce a short length', async () => {
