@@ -1,4 +1,5 @@
 import type { Metadata, Viewport } from 'next';
+import { headers } from 'next/headers';
 import './globals.css';
 import { textFont, figuresFont } from './fonts';
 import { SiteHeader } from '@/components/shell/site-header';
@@ -15,12 +16,14 @@ export const dynamic = 'force-dynamic';
 
 export const viewport: Viewport = { width: 'device-width', initialScale: 1 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // proxy.ts sets the nonce the Content-Security-Policy allows for this request's scripts.
+  const nonce = (await headers()).get('x-nonce') ?? undefined;
   return (
     <html lang="en" className={`${textFont.variable} ${figuresFont.variable}`} suppressHydrationWarning>
       <head>
         {/* Applied before first paint so the night view never flashes white. */}
-        <script dangerouslySetInnerHTML={{ __html: NIGHT_VIEW_BOOT }} />
+        <script nonce={nonce} dangerouslySetInnerHTML={{ __html: NIGHT_VIEW_BOOT }} />
       </head>
       <body className="min-h-screen bg-paper font-sans text-ink antialiased flex flex-col">
         <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 bg-panel px-3 py-2">

@@ -1,21 +1,16 @@
 import { HttpError } from '@/lib/http/errors';
+import { readFormCapped } from '@/lib/http/body';
 import type { IncomingFile } from './intake';
 import { MAX_FILES, MAX_FILE_BYTES } from './intake';
 
 const MAX_BODY = MAX_FILES * MAX_FILE_BYTES + 1024 * 1024;
 
-/** Reads `file` (one or more) and `metadata` from a multipart body, refusing oversize bodies before buffering them. */
+/** Reads `file` (one or more) and `metadata` from a multipart body, counting bytes as they stream and refusing at the cap. */
 export async function readSubmissionForm(req: Request): Promise<{ metadata: unknown; files: IncomingFile[] }> {
-  const length = Number(req.headers.get('content-length') ?? 0);
-  if (length > MAX_BODY) throw new HttpError(413, `The upload is ${(length / 1048576).toFixed(0)} MB; send at most ${MAX_FILES} files of 5 MB each.`);
   const type = req.headers.get('content-type') ?? '';
   if (!type.startsWith('multipart/form-data')) throw new HttpError(400, 'Send multipart/form-data with "file" and "metadata" fields.');
-  let form: FormData;
-  try {
-    form = await req.formData();
-  } catch {
-    throw new HttpError(400, 'The multipart body could not be read.');
-  }
+  // Counted while it streams: refused at the cap whatever Content-Length said, or without one.
+  const form = await readFormCapped(req, MAX_BODY, `The upload (at most ${MAX_FILES} files of 5 MB each)`);
   const files: IncomingFile[] = [];
   for (const entry of form.getAll('file')) {
     if (typeof entry === 'string') throw new HttpError(400, 'The "file" field must hold files, not text.');

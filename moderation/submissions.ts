@@ -3,19 +3,14 @@ import { db } from '@/db/models';
 import { audit } from '@/lib/audit';
 import { submissionMetadataSchema, type SubmissionMetadata } from '@/lib/schemas/submission';
 import { conflict, forbidden, notFound, HttpError } from '@/lib/http/errors';
+import { parseJsonText } from '@/lib/http/body';
 import type { Actor } from '@/lib/auth/actor';
 import { assess, parseFiles, type IncomingFile, type Intake } from './intake';
 import { notifyModeratorsOfSubmission } from './notify';
 
 export function parseMetadata(raw: unknown): SubmissionMetadata {
   let value = raw;
-  if (typeof raw === 'string') {
-    try {
-      value = JSON.parse(raw);
-    } catch {
-      throw new HttpError(400, 'The "metadata" field is not valid JSON.');
-    }
-  }
+  if (typeof raw === 'string') value = parseJsonText(raw, 'The "metadata" field');
   if (value === undefined || value === null) throw new HttpError(400, 'Send the "metadata" field: a JSON string of the filter and its test method.');
   return submissionMetadataSchema.parse(value);
 }

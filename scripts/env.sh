@@ -124,7 +124,7 @@ wait_for_http() {
 # Rebuild only when a source file is newer than the last build.
 build_if_stale() {
   local dist="${NEXT_DIST_DIR:-.next}"
-  if [ -f "$dist/BUILD_ID" ] && [ -z "$(find app components lib db moderation seeds public next.config.ts tailwind.config.ts package-lock.json \
+  if [ -f "$dist/BUILD_ID" ] && [ -z "$(find app components lib db moderation seeds public next.config.ts proxy.ts instrumentation.ts tailwind.config.ts package-lock.json \
         -newer "$dist/BUILD_ID" -type f 2>/dev/null | head -n 1)" ]; then
     log "build is up to date"
   else

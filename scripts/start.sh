@@ -33,7 +33,7 @@ fi
 
 build_if_stale
 log "serving on http://127.0.0.1:$PORT"
-start_bg "$ROOT/.data/server.log" npx next start -H 127.0.0.1 -p "$PORT"
+start_bg "$ROOT/.data/server.log" env NODE_ENV=production node --import tsx server.ts -H 127.0.0.1 -p "$PORT"
 log "server log: .data/server.log"
 tail -n 0 -f "$ROOT/.data/server.log" &
 STARTED_PIDS+=($!)

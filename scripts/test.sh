@@ -38,7 +38,7 @@ export SMTP_CATCHER_PORT="$SMTP_PORT"
 start_bg "$ROOT/.data/test-catcher-$PORT.log" npx tsx scripts/mail-catcher.ts
 
 build_if_stale
-start_bg "$ROOT/.data/test-server-$PORT.log" npx next start -H 127.0.0.1 -p "$PORT"
+start_bg "$ROOT/.data/test-server-$PORT.log" env NODE_ENV=production node --import tsx server.ts -H 127.0.0.1 -p "$PORT"
 wait_for_http "$TEST_BASE_URL/api/lines" 240 || { log "test server did not answer"; tail -n 40 "$ROOT/.data/test-server-$PORT.log"; exit 1; }
 
 log "running every test"

@@ -4,7 +4,7 @@
  * whole state in the URL so a search is a link.
  */
 
-import { z } from 'zod';
+import { z } from '@/lib/schemas/zod';
 import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
 
 export const SORTS = ['relevance', 'cwl', 'fwhm', 'peak', 'throughput', 'newest'] as const;

@@ -1,5 +1,6 @@
 import { NextResponse } from 'next/server';
 import { ZodError } from 'zod';
+import { readCapped, parseJsonText, JSON_BODY_MAX } from './body';
 
 export type ErrorDetail = { line?: number; field?: string; message: string };
 
@@ -60,12 +61,18 @@ export function withErrors<A extends unknown[]>(fn: (...args: A) => Promise<Resp
   };
 }
 
-export async function readJson(req: Request): Promise<unknown> {
-  const text = await req.text();
-  if (!text.trim()) throw badRequest('The request body is empty; send JSON.');
+/**
+ * Parses a JSON body of at most `maxBytes`, counted while it streams in (lib/http/body.ts).
+ * The default fits every form of the API; routes that take whole curves pass a larger cap.
+ */
+export async function readJson(req: Request, maxBytes = JSON_BODY_MAX): Promise<unknown> {
+  const bytes = await readCapped(req, maxBytes);
+  let text: string;
   try {
-    return JSON.parse(text);
+    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
   } catch {
-    throw badRequest('The request body is not valid JSON.');
+    throw badRequest('The request body is not valid UTF-8 text; send JSON.');
   }
+  if (!text.trim()) throw badRequest('The request body is empty; send JSON.');
+  return parseJsonText(text);
 }

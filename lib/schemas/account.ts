@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from './zod';
 
 const email = z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address' }));
 const password = z.string().min(10, 'Use at least 10 characters').max(200, 'Use at most 200 characters');

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from './zod';
 
 const finite = (what: string) => z.number({ error: `${what} must be a number` }).refine(Number.isFinite, `${what} must be finite`);
 

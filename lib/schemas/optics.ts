@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from './zod';
 
 /**
  * One schema for the optics form and the /api/optics handlers. An optic is typed

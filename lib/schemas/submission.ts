@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from './zod';
 import { readerOptionsSchema } from './model';
 
 export const LINE_IDS = ['Ha', 'Hb', 'Hg', 'OIII', 'OIII-496', 'NII-658', 'NII-655', 'SII-671', 'SII-673', 'HeII', 'OI', 'ArIII', 'OII'] as const;

@@ -6,7 +6,7 @@
  * What comes back is checked like any other input: a link is typed by someone.
  */
 
-import { z } from 'zod';
+import { z } from '@/lib/schemas/zod';
 import { computeMetrics } from '@/lib/engine/metrics';
 import type { StudyCurve } from './types';
 

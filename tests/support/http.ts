@@ -1,5 +1,6 @@
 // Talks to the running test server exactly as outside scripts do (docs/api.md).
 export const BASE = process.env.TEST_BASE_URL ?? 'http://127.0.0.1:3100';
+export const ORIGIN = new URL(BASE).origin;
 export const DEMO_PASSWORD = process.env.DEMO_PASSWORD ?? 'bandcone-demo';
 
 export type Client = { cookie: string; fetch: (path: string, init?: RequestInit) => Promise<Response> };
@@ -21,6 +22,8 @@ function clientFor(jar: Map<string, string>): Client {
     fetch: async (path, init = {}) => {
       const headers = new Headers(init.headers);
       if (jar.size) headers.set('cookie', cookie());
+      // As a browser on our own pages would: writes that ride on the cookie must name their origin.
+      if (!headers.has('origin')) headers.set('origin', ORIGIN);
       const res = await fetch(BASE + path, { ...init, headers, redirect: 'manual' });
       mergeCookies(jar, res);
       return res;

@@ -5,7 +5,7 @@ import Link from 'next/link';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { signIn } from 'next-auth/react';
-import { z } from 'zod';
+import { z } from '@/lib/schemas/zod';
 import { signInSchema, resetRequestSchema } from '@/lib/schemas/account';
 import { Field, inputClass, buttonClass } from '@/components/forms/field';
 

@@ -1,5 +1,6 @@
 import { NextResponse } from 'next/server';
 import { withErrors, readJson, HttpError, badRequest } from '@/lib/http/errors';
+import { POINTS_BODY_MAX, parseJsonText, readFormCapped } from '@/lib/http/body';
 import { readCurveText, MAX_FILE_BYTES } from '@/lib/engine/reader';
 import { cleanPoints } from '@/lib/engine/curve';
 import { computeMetrics } from '@/lib/engine/metrics';
@@ -13,11 +14,7 @@ const PER_MINUTE = Number(process.env.PREVIEW_RATE_PER_MINUTE ?? 120);
 function parseJsonField(raw: FormDataEntryValue | null, what: string): unknown {
   if (raw === null || raw === '') return undefined;
   if (typeof raw !== 'string') throw badRequest(`The "${what}" field must be JSON text.`);
-  try {
-    return JSON.parse(raw);
-  } catch {
-    throw badRequest(`The "${what}" field is not valid JSON.`);
-  }
+  return parseJsonText(raw, `The "${what}" field`);
 }
 
 // Stores nothing: reads a file (or points), derives the numbers and runs the checks.
@@ -29,10 +26,7 @@ export const POST = withErrors(async (req: Request) => {
   let read: { points: { wavelengthNm: number[]; transmission: number[] }; assumed?: unknown; warnings: string[] };
   let metadata: unknown;
   if (type.startsWith('multipart/form-data')) {
-    if (Number(req.headers.get('content-length') ?? 0) > MAX_FILE_BYTES + 256 * 1024) throw new HttpError(413, 'The file is over 5 MB.');
-    const form = await req.formData().catch(() => {
-      throw badRequest('The multipart body could not be read.');
-    });
+    const form = await readFormCapped(req, MAX_FILE_BYTES + 256 * 1024, 'The file');
     const file = form.get('file');
     if (!file || typeof file === 'string') throw badRequest('Attach the data file in the "file" field.');
     if (file.size > MAX_FILE_BYTES) throw new HttpError(413, `${file.name} is ${(file.size / 1048576).toFixed(1)} MB; the limit is 5 MB.`);
@@ -41,7 +35,7 @@ export const POST = withErrors(async (req: Request) => {
     const r = readCurveText(new Uint8Array(await file.arrayBuffer()), options);
     read = { points: r.points, assumed: r.assumed, warnings: r.warnings };
   } else {
-    const body = (await readJson(req)) as { points?: unknown; metadata?: unknown };
+    const body = (await readJson(req, POINTS_BODY_MAX)) as { points?: unknown; metadata?: unknown };
     const points = pointsSchema.parse(body?.points);
     metadata = body?.metadata;
     const cleaned = cleanPoints(points);

@@ -1,12 +1,13 @@
 import { NextResponse } from 'next/server';
 import { withErrors, readJson } from '@/lib/http/errors';
+import { POINTS_BODY_MAX } from '@/lib/http/body';
 import { coneRequestSchema } from '@/lib/schemas/model';
 import { runConeModel } from '@/lib/engine/cone-study';
 import { currentActor } from '@/lib/auth/actor';
 import { loadReadableCurve } from '@/lib/catalogue/points';
 
 export const POST = withErrors(async (req: Request) => {
-  const body = coneRequestSchema.parse(await readJson(req));
+  const body = coneRequestSchema.parse(await readJson(req, POINTS_BODY_MAX));
   let points = body.points;
   let measuredAoiDeg = body.measuredAoiDeg;
   if (body.curveId !== undefined) {

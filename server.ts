@@ -1,0 +1,82 @@
+// Bandcone's HTTP server: Node's `http` in front of Next's request handler, so that what only
+// the socket knows (who is connecting) and what must hold for every route (where a write comes
+// from, what it carries) is settled before any page or route handler runs.
+//
+//   node --import tsx server.ts [-H 127.0.0.1] [-p 3000] [--dev]
+//
+// PORT and HOST are read from the environment when the flags are absent. TRUSTED_PROXIES=N
+// says N reverse proxies of ours stand in front (lib/http/client-address.ts).
+import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import next from 'next';
+import { forwardedChain, trustedProxyCount } from './lib/http/client-address';
+import { guardRequest } from './lib/http/request-guard';
+
+function flag(name: string): string | undefined {
+  const i = process.argv.indexOf(name);
+  return i >= 0 ? process.argv[i + 1] : undefined;
+}
+
+const dev = process.argv.includes('--dev');
+const hostname = flag('-H') ?? process.env.HOST ?? '127.0.0.1';
+const port = Number(flag('-p') ?? process.env.PORT ?? 3000);
+const trusted = trustedProxyCount();
+const dir = path.dirname(fileURLToPath(import.meta.url));
+
+// Headers only a proxy we trust may set; from anyone else they are lies about the request.
+const PROXY_HEADERS = ['x-forwarded-host', 'x-forwarded-proto', 'x-forwarded-port', 'forwarded'];
+
+/** Rewrites the client-address headers from what the socket (and trusted proxies) say. */
+function settleAddress(req: IncomingMessage) {
+  const chain = forwardedChain(req.socket.remoteAddress, req.headers['x-forwarded-for'], trusted);
+  req.headers['x-forwarded-for'] = chain.forwardedFor;
+  req.headers['x-real-ip'] = chain.client;
+  if (trusted === 0) for (const h of PROXY_HEADERS) delete req.headers[h];
+}
+
+function refuse(res: ServerResponse, status: number, error: string) {
+  const body = JSON.stringify({ error, details: [] });
+  res.writeHead(status, { 'content-type': 'application/json; charset=utf-8', 'content-length': Buffer.byteLength(body), 'cache-control': 'no-store', 'x-content-type-options': 'nosniff', connection: 'close' });
+  res.end(body);
+}
+
+async function main() {
+  const app = next({ dev, dir, hostname, port });
+  const handle = app.getRequestHandler();
+  await app.prepare();
+
+  const server = createServer((req, res) => {
+    settleAddress(req);
+    const refusal = guardRequest({ method: req.method ?? 'GET', path: req.url ?? '/', headers: req.headers });
+    if (refusal) {
+      // Drain nothing: the connection closes with the answer.
+      refuse(res, refusal.status, refusal.error);
+      return;
+    }
+    handle(req, res).catch((err: unknown) => {
+      console.error(err);
+      if (!res.headersSent) refuse(res, 500, 'Something went wrong on our side; nothing was saved.');
+      else res.destroy();
+    });
+  });
+  // A request must arrive whole within five minutes and its headers within one (slow-send attacks).
+  server.requestTimeout = 5 * 60_000;
+  server.headersTimeout = 60_000;
+  server.listen(port, hostname, () => {
+    console.log(`Bandcone listening on http://${hostname}:${port} (${dev ? 'development' : 'production'}; trusted proxies: ${trusted})`);
+  });
+
+  const stop = () => {
+    server.close(() => process.exit(0));
+    server.closeAllConnections();
+    setTimeout(() => process.exit(0), 5000).unref();
+  };
+  process.on('SIGTERM', stop);
+  process.on('SIGINT', stop);
+}
+
+main().catch((err: unknown) => {
+  console.error(err);
+  process.exit(1);
+});
