@@ -2,7 +2,7 @@ import type { NextConfig } from 'next';
 
 const nextConfig: NextConfig = {
   // The database and mail stacks load dynamic modules that must stay out of the bundle.
-  serverExternalPackages: ['sequelize', 'pg', 'pg-hstore', 'nodemailer', 'bcryptjs'],
+  serverExternalPackages: ['sequelize', 'pg', 'pg-hstore', 'nodemailer', 'bcryptjs', 'pg-boss'],
   poweredByHeader: false,
   // Lets several checkouts' builds (e.g. parallel test runs) live side by side.
   distDir: process.env.NEXT_DIST_DIR ?? '.next',
