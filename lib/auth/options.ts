@@ -14,7 +14,7 @@ import { liveSessionUser, openSession, revokeSession, SESSION_MAX_AGE_SECONDS } 
 export const SIGN_IN_LIMITS = { perAccount: 8, perAddress: 40, windowSeconds: 15 * 60 };
 
 // Failed attempts only count against the limit; a good password resets nothing but is not slowed.
-async function checkCredentials(raw: unknown, address: string) {
+export async function checkCredentials(raw: unknown, address: string) {
   const parsed = signInSchema.safeParse(raw);
   if (!parsed.success) return null;
   const { email, password } = parsed.data;
