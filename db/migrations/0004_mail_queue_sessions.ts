@@ -22,6 +22,7 @@ const PGBOSS_SCHEMA = 'pgboss';
 const QUEUES: [string, Record<string, unknown>][] = [
   ['mail-send', { policy: 'standard', retryLimit: 8, retryDelay: 30, retryBackoff: true, expireInSeconds: 120 }],
   ['reset-request', { policy: 'standard', retryLimit: 5, retryDelay: 30, retryBackoff: true, expireInSeconds: 120 }],
+  ['register-request', { policy: 'standard', retryLimit: 5, retryDelay: 30, retryBackoff: true, expireInSeconds: 120 }],
 ];
 
 const tables = `

@@ -3,7 +3,7 @@ import { db } from '@/db/models';
 import { hashPassword } from '@/lib/auth/password';
 import { newSecret, sha256Hex } from '@/lib/auth/tokens';
 import { revokeAllSessions } from '@/lib/auth/sessions';
-import { enqueueJob, enqueueMail, RESET_QUEUE } from '@/lib/mail/queue';
+import { enqueueJob, enqueueMail, REGISTER_QUEUE, RESET_QUEUE } from '@/lib/mail/queue';
 import { audit } from '@/lib/audit';
 import { unprocessable } from '@/lib/http/errors';
 
@@ -37,17 +37,27 @@ async function consumeToken(secret: string, purpose: Purpose, transaction: Trans
   return rows[0].user_id;
 }
 
+export type RegistrationRequest = { name: string; email: string; passwordHash: string };
+
 /**
- * Sign-up. Whether the address already has an account must not show: the answer is the
- * same, a password is hashed either way (the slow part), and the address's owner is told
- * by mail instead.
+ * Sign-up. Whether the address already has an account must not show, in the answer or in its
+ * time: the request hashes the password (the slow part) and queues the registration, one
+ * INSERT whatever the address; the worker then makes the account, or tells the address's
+ * owner that someone tried (prepareRegistration).
  */
 export async function register(input: { name: string; email: string; password: string }): Promise<{ email: string }> {
-  const { User, sequelize } = db();
   const passwordHash = await hashPassword(input.password);
+  const request: RegistrationRequest = { name: input.name, email: input.email, passwordHash };
+  await db().sequelize.transaction((transaction) => enqueueJob(REGISTER_QUEUE, request, transaction));
+  return { email: input.email };
+}
+
+/** Worker side of register: the account, its audit row, its token and its mail, together. */
+export async function prepareRegistration({ name, email, passwordHash }: RegistrationRequest): Promise<void> {
+  const { User, sequelize } = db();
   try {
     await sequelize.transaction(async (transaction) => {
-      const existing = await User.findOne({ where: { email: input.email }, transaction });
+      const existing = await User.findOne({ where: { email }, transaction });
       if (existing) {
         await audit(null, 'user.register_existing', { type: 'user', id: existing.id }, {}, transaction);
         await enqueueMail({
@@ -61,7 +71,7 @@ export async function register(input: { name: string; email: string; password: s
         }, transaction);
         return;
       }
-      const user = await User.create({ name: input.name, email: input.email, passwordHash, emailVerified: null, role: 'contributor' }, { transaction });
+      const user = await User.create({ name, email, passwordHash, emailVerified: null, role: 'contributor' }, { transaction });
       await audit(user.id, 'user.registered', { type: 'user', id: user.id }, { email: user.email }, transaction);
       const token = await issueToken(user.id, 'confirm_email', 48, transaction);
       await enqueueMail({
@@ -78,7 +88,6 @@ export async function register(input: { name: string; email: string; password: s
     // Two sign-ups for one address at once: the other one made the account and sent its mail.
     if (!(err instanceof UniqueConstraintError)) throw err;
   }
-  return { email: input.email };
 }
 
 export async function confirmEmail(secret: string) {

@@ -11,6 +11,7 @@ import { databaseUrl } from '@/db/config';
 
 export const MAIL_QUEUE = 'mail-send';
 export const RESET_QUEUE = 'reset-request';
+export const REGISTER_QUEUE = 'register-request';
 export const PGBOSS_SCHEMA = 'pgboss';
 
 /** Retry policy, from the environment: tries = retries + 1; delays double from the first, with jitter. */
@@ -20,7 +21,7 @@ export function retryPolicy() {
   return { retryLimit, retryDelay, retryBackoff: true, expireInSeconds: 120 };
 }
 
-const globalForBoss = globalThis as unknown as { bandconeBoss?: PgBoss; bandconeMailWorker?: string };
+const globalForBoss = globalThis as unknown as { bandconeBoss?: PgBoss; bandconeWorkers?: Map<string, string> };
 
 /** The process's one pg-boss instance. Sending through a transaction needs no start(). */
 export function boss(): PgBoss {
@@ -41,13 +42,20 @@ export function boss(): PgBoss {
   return globalForBoss.bandconeBoss;
 }
 
-export function rememberWorker(id: string | undefined) {
-  globalForBoss.bandconeMailWorker = id;
+const workers = () => (globalForBoss.bandconeWorkers ??= new Map());
+
+export function rememberWorker(queue: string, id: string | undefined) {
+  if (id) workers().set(queue, id);
+  else workers().delete(queue);
 }
 
-/** Wakes this process's worker, if it runs one, instead of waiting for its next poll. */
-function wakeWorker() {
-  const id = globalForBoss.bandconeMailWorker;
+/**
+ * Wakes this process's worker for the queue, if it runs one, instead of letting it wait for
+ * its next poll. pg-boss waits a whole polling interval after every fetch, so a worker also
+ * wakes itself after each job: a backlog drains at SMTP speed, not one message a second.
+ */
+export function wakeWorker(queue: string) {
+  const id = workers().get(queue);
   if (id) boss().notifyWorker(id);
 }
 
@@ -61,7 +69,7 @@ function viaTransaction(transaction: Transaction): PgBoss.Db {
 export async function enqueueJob(queue: string, data: object, transaction: Transaction): Promise<void> {
   const id = await boss().send(queue, data, { ...retryPolicy(), db: viaTransaction(transaction) });
   if (!id) throw new Error(`the ${queue} queue refused a job`);
-  transaction.afterCommit(wakeWorker);
+  transaction.afterCommit(() => wakeWorker(queue));
 }
 
 export type QueuedMail = {

@@ -1,8 +1,8 @@
 import { QueryTypes } from 'sequelize';
 import { getSequelize } from '@/db/connection';
 import { isPermanentSmtpFailure, sendMail } from './send';
-import { MAIL_QUEUE, RESET_QUEUE, boss, rememberWorker } from './queue';
-import { prepareResetMail } from '@/lib/account/flows';
+import { MAIL_QUEUE, REGISTER_QUEUE, RESET_QUEUE, boss, rememberWorker, wakeWorker } from './queue';
+import { prepareRegistration, prepareResetMail, type RegistrationRequest } from '@/lib/account/flows';
 
 type Claimed = { recipients: string[]; subject: string; text_body: string | null; attempts: number; max_attempts: number };
 
@@ -61,8 +61,18 @@ export function startMailWorker(): Promise<void> {
       }
     }
     const polling = { batchSize: 1, pollingIntervalSeconds: Number(process.env.MAIL_POLL_SECONDS ?? 1) };
-    rememberWorker(await queue.work<{ mailId: number }>(MAIL_QUEUE, polling, async ([job]) => deliver(Number(job.data.mailId))));
-    await queue.work<{ email: string }>(RESET_QUEUE, polling, async ([job]) => prepareResetMail(job.data.email));
+    // One job per fetch, so a failure retries that message alone; after each, look again at once.
+    const handle = <T extends object>(name: string, fn: (data: T) => Promise<unknown>) =>
+      queue.work<T>(name, polling, async ([job]) => {
+        try {
+          return await fn(job.data);
+        } finally {
+          wakeWorker(name);
+        }
+      });
+    rememberWorker(MAIL_QUEUE, await handle<{ mailId: number }>(MAIL_QUEUE, (d) => deliver(Number(d.mailId))));
+    rememberWorker(RESET_QUEUE, await handle<{ email: string }>(RESET_QUEUE, (d) => prepareResetMail(d.email)));
+    rememberWorker(REGISTER_QUEUE, await handle<RegistrationRequest>(REGISTER_QUEUE, prepareRegistration));
   })();
   return starting;
 }
@@ -70,7 +80,9 @@ export function startMailWorker(): Promise<void> {
 export async function stopMailWorker(): Promise<void> {
   if (!starting) return;
   await starting;
-  rememberWorker(undefined);
+  rememberWorker(MAIL_QUEUE, undefined);
+  rememberWorker(RESET_QUEUE, undefined);
+  rememberWorker(REGISTER_QUEUE, undefined);
   await boss().stop({ graceful: true, timeout: 5000 });
   starting = undefined;
 }

@@ -134,5 +134,5 @@ describe('mail that cannot be lost', () => {
       `relay down ${downSeconds.toFixed(1)} s; tries per mail ${Math.min(...tries)}–${Math.max(...tries)}; ` +
       `all 10 delivered ${recoverSeconds.toFixed(1)} s after the relay came back, each exactly once`,
     );
-  });
+  }, 180_000);
 });
