@@ -1,6 +1,13 @@
 // Runs once when a server process starts.
 export async function register() {
-  if (process.env.NEXT_RUNTIME !== 'nodejs' || process.env.BANDCONE_WARM_CATALOGUE === '0') return;
+  if (process.env.NEXT_RUNTIME !== 'nodejs') return;
+  // The mail queue's worker lives in the app server: it sends what requests queued, after
+  // their answers, and retries while the relay is down (lib/mail/worker.ts). It waits for
+  // the database by itself when it is not there yet.
+  if (process.env.MAIL_WORKER !== '0') {
+    import('@/lib/mail/worker').then((m) => m.startMailWorker()).catch((err) => console.error('mail worker did not start', err));
+  }
+  if (process.env.BANDCONE_WARM_CATALOGUE === '0') return;
   // The in-process copy behind fitness searches takes about a second to read at 100 000 curves;
   // reading it now, in the background, spares the first visitor that wait. A failure here only
   // means the first search reads it instead.

@@ -3,7 +3,7 @@ import { API_CSP, staticSecurityHeaders } from './lib/http/security-headers';
 
 const nextConfig: NextConfig = {
   // The database and mail stacks load dynamic modules that must stay out of the bundle.
-  serverExternalPackages: ['sequelize', 'pg', 'pg-hstore', 'nodemailer', 'bcryptjs'],
+  serverExternalPackages: ['sequelize', 'pg', 'pg-hstore', 'nodemailer', 'bcryptjs', 'pg-boss'],
   poweredByHeader: false,
   // Lets several checkouts' builds (e.g. parallel test runs) live side by side.
   distDir: process.env.NEXT_DIST_DIR ?? '.next',

@@ -36,29 +36,34 @@ export async function decide(moderator: Pick<Actor, 'id' | 'role'>, submissionId
     await Review.create({ submissionId, authorId: moderator.id, kind: decision, body: note, isPublic: decision === 'verify' }, { transaction });
     await audit(moderator.id, `submission.${decision}`, { type: 'submission', id: submissionId }, { note, revision: submission.revision }, transaction);
     const contributor = await User.findByPk(submission.contributorId, { transaction, attributes: ['email'] });
-    return { status, label: submission.label, email: contributor?.email };
+    // The mail is queued in the same transaction: the decision and its mail exist together or not at all.
+    if (contributor?.email && options.notify !== false) await notifyContributorOfDecision(submissionId, contributor.email, submission.label, decision, note, transaction);
+    return { status };
   });
-  if (outcome.email && options.notify !== false) await notifyContributorOfDecision(submissionId, outcome.email, outcome.label, decision, note);
   return { id: submissionId, status: outcome.status };
 }
 
 /** A note in the thread: the contributor answers, or a moderator asks without deciding. */
 export async function addNote(actor: Pick<Actor, 'id' | 'role' | 'name' | 'email'>, submissionId: number, body: string) {
-  const { Submission, Review, User } = db();
+  const { Submission, Review, User, sequelize } = db();
   const submission = await Submission.findByPk(submissionId);
   if (!submission) throw notFound('No such submission.');
   const isOwner = submission.contributorId === actor.id;
   const isModerator = hasRole(actor as Actor, 'moderator');
   if (!isOwner && !isModerator) throw forbidden('Only the contributor and moderators take part in this thread.');
-  const review = await Review.create({ submissionId, authorId: actor.id, kind: isOwner ? 'reply' : 'note', body });
-  await audit(actor.id, 'submission.note', { type: 'submission', id: submissionId }, { kind: review.kind });
-  if (isOwner) {
-    const moderators = await Review.findAll({ where: { submissionId, kind: { [Op.ne]: 'reply' } }, include: [{ model: User, as: 'author', attributes: ['email'] }] });
-    const to = [...new Set(moderators.map((r) => (r as unknown as { author?: { email: string } }).author?.email).filter((e): e is string => !!e))];
-    await notifyOfNote(submissionId, to, submission.label, actor.name ?? actor.email, body, true);
-  } else {
-    const owner = await User.findByPk(submission.contributorId, { attributes: ['email'] });
-    if (owner) await notifyOfNote(submissionId, [owner.email], submission.label, actor.name ?? actor.email, body, false);
-  }
+  // The note, its audit row and its mail commit together.
+  const review = await sequelize.transaction(async (transaction) => {
+    const review = await Review.create({ submissionId, authorId: actor.id, kind: isOwner ? 'reply' : 'note', body }, { transaction });
+    await audit(actor.id, 'submission.note', { type: 'submission', id: submissionId }, { kind: review.kind }, transaction);
+    if (isOwner) {
+      const moderators = await Review.findAll({ where: { submissionId, kind: { [Op.ne]: 'reply' } }, include: [{ model: User, as: 'author', attributes: ['email'] }], transaction });
+      const to = [...new Set(moderators.map((r) => (r as unknown as { author?: { email: string } }).author?.email).filter((e): e is string => !!e))];
+      await notifyOfNote(submissionId, to, submission.label, actor.name ?? actor.email, body, true, transaction);
+    } else {
+      const owner = await User.findByPk(submission.contributorId, { attributes: ['email'], transaction });
+      if (owner) await notifyOfNote(submissionId, [owner.email], submission.label, actor.name ?? actor.email, body, false, transaction);
+    }
+    return review;
+  });
   return { id: review.id, kind: review.kind, body: review.body, createdAt: review.createdAt };
 }

@@ -68,9 +68,9 @@ export async function createSubmission(actor: Pick<Actor, 'id'>, metadata: Submi
     );
     const curveIds = await insertCurves(submission.id, actor.id, revision, metadata, intake, 'submitted', transaction, replaces);
     await audit(actor.id, 'submission.created', { type: 'submission', id: submission.id }, { label: metadata.label, files: intake.files.map((f) => f.name), curveIds }, transaction);
+    if (options.notify !== false) await notifyModeratorsOfSubmission(submission.id, metadata.label, 1, transaction);
     return { submission, curveIds };
   });
-  if (options.notify !== false) await notifyModeratorsOfSubmission(result.submission.id, metadata.label, 1);
   return { id: result.submission.id, status: result.submission.status, checks: intake.checks, curveIds: result.curveIds, nEff: intake.nEff };
 }
 
@@ -100,8 +100,8 @@ export async function reviseSubmission(actor: Pick<Actor, 'id'>, submissionId: n
     );
     const curveIds = await insertCurves(submissionId, actor.id, revision, metadata, intake, 'submitted', transaction, locked.replacesCurveId ?? null);
     await audit(actor.id, 'submission.revised', { type: 'submission', id: submissionId }, { revision, files: intake.files.map((f) => f.name), curveIds }, transaction);
+    await notifyModeratorsOfSubmission(submissionId, metadata.label, revision, transaction);
     return { curveIds };
   });
-  await notifyModeratorsOfSubmission(submissionId, metadata.label, revision);
   return { id: submissionId, status: 'submitted' as const, revision, checks: intake.checks, curveIds: result.curveIds, nEff: intake.nEff };
 }

@@ -15,6 +15,8 @@ export NEXTAUTH_URL="http://127.0.0.1:$PORT"
 export TEST_BASE_URL="$NEXTAUTH_URL"
 export DEMO_PASSWORD="bandcone-demo"
 export BANDCONE_TEST=1
+# Mail retries start 1 s apart (30 s outside tests) so the outage test sees several tries quickly.
+export MAIL_RETRY_DELAY_SECONDS="${MAIL_RETRY_DELAY_SECONDS:-1}"
 
 trap 'stop_started' EXIT
 trap 'exit 130' INT TERM

@@ -13,5 +13,7 @@ declare module 'next-auth/jwt' {
   interface JWT {
     role?: Role;
     disabled?: boolean;
+    /** The server-side session this cookie names (lib/auth/sessions.ts). */
+    sid?: string;
   }
 }

@@ -2,6 +2,7 @@ import type { MigrationContext } from '../migrator';
 import foundation from './0001_foundation';
 import catalogue from './0002_catalogue';
 import catalogueVersion from './0003_catalogue_version';
+import mailQueueSessions from './0004_mail_queue_sessions';
 import rateLimits from './0007_rate_limits';
 
 export type Migration = {
@@ -11,4 +12,4 @@ export type Migration = {
 };
 
 // Append new migrations here, in order; never edit one that has shipped.
-export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, rateLimits];
+export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, rateLimits];

@@ -4,15 +4,17 @@ import EmailProvider from 'next-auth/providers/email';
 import SequelizeAdapter from '@next-auth/sequelize-adapter';
 import { db } from '@/db/models';
 import type { Role } from '@/db/models/user';
-import { verifyPassword } from './password';
+import { passwordMatches } from './password';
 import { signInSchema } from '@/lib/schemas/account';
 import { clientAddress, hitCount, recordHit } from '@/lib/rate-limit';
-import { sendMail, smtpUrl } from '@/lib/mail/send';
+import { smtpUrl } from '@/lib/mail/send';
+import { acceptLinkSignIn, sendSignInLink } from './link-sign-in';
+import { liveSessionUser, openSession, revokeSession, SESSION_MAX_AGE_SECONDS } from './sessions';
 
 export const SIGN_IN_LIMITS = { perAccount: 8, perAddress: 40, windowSeconds: 15 * 60 };
 
 // Failed attempts only count against the limit; a good password resets nothing but is not slowed.
-async function checkCredentials(raw: unknown, address: string) {
+export async function checkCredentials(raw: unknown, address: string) {
   const parsed = signInSchema.safeParse(raw);
   if (!parsed.success) return null;
   const { email, password } = parsed.data;
@@ -24,7 +26,8 @@ async function checkCredentials(raw: unknown, address: string) {
   }
   const { User } = db();
   const user = await User.findOne({ where: { email } });
-  const ok = !!user?.passwordHash && (await verifyPassword(password, user.passwordHash));
+  // Compared against a dummy hash when there is no account, so both refusals take as long.
+  const ok = await passwordMatches(password, user?.passwordHash);
   if (!user || !ok) {
     await recordHit(accountBucket);
     await recordHit(addressBucket);
@@ -43,7 +46,8 @@ export function authOptions(): NextAuthOptions {
       models: { User: models.User, Account: models.Account, Session: models.Session, VerificationToken: models.VerificationToken } as never,
     }),
     // Credentials sign-in needs signed JWT sessions; roles are re-read on every request below.
-    session: { strategy: 'jwt', maxAge: 30 * 24 * 3600 },
+    // Each JWT names a server-side session (lib/auth/sessions.ts) that every request checks.
+    session: { strategy: 'jwt', maxAge: SESSION_MAX_AGE_SECONDS },
     secret: process.env.NEXTAUTH_SECRET,
     pages: { signIn: '/signin', verifyRequest: '/signin/check-mail', error: '/signin' },
     providers: [
@@ -56,26 +60,32 @@ export function authOptions(): NextAuthOptions {
         server: smtpUrl(),
         from: process.env.MAIL_FROM ?? 'Bandcone <no-reply@bandcone.test>',
         maxAge: 30 * 60,
-        sendVerificationRequest: async ({ identifier, url }) => {
-          await sendMail({
-            to: identifier,
-            subject: 'Your Bandcone sign-in link',
-            text: `Open this link to sign in to Bandcone (valid for 30 minutes):\n\n${url}\n\nIf you did not ask for it, ignore this message.`,
-          });
-        },
+        // Queued, never sent inline; the same answer whether or not the address has an account.
+        sendVerificationRequest: ({ identifier, url }) => sendSignInLink(identifier, url),
       }),
     ],
+    events: {
+      // Ends this cookie's session alone: a copy of the cookie dies with it.
+      async signOut({ token }) {
+        await revokeSession(token?.sid);
+      },
+    },
     callbacks: {
-      async signIn({ user }) {
-        const found = user?.email ? await models.User.findOne({ where: { email: user.email.toLowerCase() } }) : null;
-        if (found?.disabledAt) return '/signin?error=AccountDisabled';
+      async signIn({ user, account, email }) {
+        // Asking for a link: always the same answer; sendSignInLink decides what the mail says.
+        if (email?.verificationRequest) return true;
+        // Following a valid link: only for an existing, enabled account (never creates one).
+        if (account?.provider === 'email') return user?.email ? acceptLinkSignIn(user.email) : '/signin?error=NoAccount';
         return true;
       },
-      async jwt({ token, user }) {
-        const id = (user?.id as string | undefined) ?? (token.sub as string | undefined);
-        if (!id) return token;
-        const fresh = await models.User.findByPk(id);
-        if (!fresh || fresh.disabledAt) return { ...token, role: undefined, disabled: true };
+      async jwt({ token, user, account }) {
+        if (user?.id) {
+          // A fresh sign-in: a new server-side session that this cookie names.
+          const sid = await openSession(String(user.id), account?.provider === 'email' ? 'email_link' : 'password');
+          token = { ...token, sub: String(user.id), sid };
+        }
+        const fresh = await liveSessionUser(token.sid, token.sub);
+        if (!fresh) return { ...token, role: undefined, disabled: true };
         return { ...token, sub: fresh.id, name: fresh.name, email: fresh.email, role: fresh.role, disabled: false };
       },
       async session({ session, token }) {

@@ -12,7 +12,7 @@ export const registerSchema = z.object({
 });
 
 export const resetRequestSchema = z.object({ email });
-export const resetConfirmSchema = z.object({ token: z.string().min(10), password });
+export const resetConfirmSchema = z.object({ token: z.string().min(10).max(200), password, revokeTokens: z.boolean().optional() });
 
 export const roleChangeSchema = z
   .object({ role: z.enum(['contributor', 'moderator', 'admin']).optional(), disabled: z.boolean().optional() })

@@ -4,6 +4,8 @@ import { requirePageRole } from '@/lib/auth/actor';
 import { db } from '@/db/models';
 import { countChecks } from '@/components/review/check-list';
 import { MySubmissionsTable, type MySubmissionRow } from '@/components/account/my-submissions-table';
+import { SignOutEverywhere } from '@/components/account/sign-out-everywhere';
+import { countLiveSessions } from '@/lib/auth/sessions';
 
 export const metadata: Metadata = { title: 'Account' };
 
@@ -29,6 +31,7 @@ export default async function AccountPage() {
             <dt className="text-muted">Role</dt>
             <dd data-testid="account-role">{actor.role}</dd>
           </dl>
+          {actor.via === 'session' ? <SignOutEverywhere sessions={await countLiveSessions(actor.id)} /> : null}
         </div>
         <nav aria-label="Account" className="flex flex-wrap gap-2 text-sm">
           <Link href="/submit" className="rounded-card bg-accent px-3 py-2 text-accent-ink">Submit a curve</Link>

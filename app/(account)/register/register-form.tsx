@@ -24,7 +24,11 @@ export function RegisterForm() {
   }
 
   if (done) {
-    return <p role="status" className="rounded-card border border-ok p-3">Almost there: we sent a confirmation link to {done}. Open it, then sign in.</p>;
+    return (
+      <p role="status" className="rounded-card border border-ok p-3">
+        Almost there: a message is on its way to {done}. Open the confirmation link in it, then sign in. (If that address already has an account, the message says so instead.)
+      </p>
+    );
   }
   return (
     <form onSubmit={form.handleSubmit(onSubmit)} className="space-y-4" noValidate>

@@ -10,6 +10,8 @@ const MESSAGES: Record<string, string> = {
   EmailNotConfirmed: 'Confirm your e-mail address first: open the link we sent you.',
   NeedsRole: 'Your account does not have the role this page needs.',
   Verification: 'That sign-in link has expired or was already used.',
+  NoAccount: 'There is no account for that address; create one first.',
+  LinkRateLimited: 'Too many sign-in links were asked for; try again in an hour, or sign in with your password.',
 };
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {

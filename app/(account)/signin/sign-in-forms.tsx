@@ -14,6 +14,7 @@ const ERRORS: Record<string, string> = {
   RateLimited: 'Too many failed attempts; wait 15 minutes or reset your password.',
   AccountDisabled: 'This account is disabled; contact an administrator.',
   EmailNotConfirmed: 'Confirm your e-mail address first: open the link we sent you.',
+  LinkRateLimited: 'Too many sign-in links were asked for; try again in an hour, or sign in with your password.',
 };
 
 export function SignInForms({ callbackUrl }: { callbackUrl: string }) {
@@ -32,7 +33,13 @@ export function SignInForms({ callbackUrl }: { callbackUrl: string }) {
   }
 
   async function onLink(values: z.input<typeof resetRequestSchema>) {
-    await signIn('email', { email: values.email, callbackUrl });
+    setError(undefined);
+    const res = await signIn('email', { email: values.email, callbackUrl, redirect: false });
+    if (!res || res.error) {
+      setError(ERRORS[res?.error ?? ''] ?? 'The link could not be sent; try again.');
+      return;
+    }
+    window.location.assign('/signin/check-mail');
   }
 
   return (

@@ -9,6 +9,7 @@ export const POST = withErrors(async (req: Request) => {
     throw new HttpError(429, 'Too many sign-ups from this address; try again in an hour.');
   }
   const input = registerSchema.parse(await readJson(req));
-  const user = await register(input);
-  return NextResponse.json({ id: user.id, email: user.email, confirmationSent: true }, { status: 201 });
+  // The same answer whether or not the address already has an account (lib/account/flows.ts).
+  const { email } = await register(input);
+  return NextResponse.json({ email, confirmationSent: true }, { status: 202 });
 });

@@ -4,7 +4,7 @@ import { resetConfirmSchema } from '@/lib/schemas/account';
 import { resetPassword } from '@/lib/account/flows';
 
 export const POST = withErrors(async (req: Request) => {
-  const { token, password } = resetConfirmSchema.parse(await readJson(req));
-  await resetPassword(token, password);
-  return NextResponse.json({ reset: true });
+  const { token, password, revokeTokens } = resetConfirmSchema.parse(await readJson(req));
+  const { sessionsEnded, tokensRevoked } = await resetPassword(token, password, { revokeTokens });
+  return NextResponse.json({ reset: true, sessionsEnded, tokensRevoked });
 });

@@ -4,6 +4,7 @@ import { requireRole } from '@/lib/auth/actor';
 import { roleChangeSchema } from '@/lib/schemas/account';
 import { db } from '@/db/models';
 import { audit } from '@/lib/audit';
+import { revokeAllSessions } from '@/lib/auth/sessions';
 
 export const PATCH = withErrors(async (req: Request, ctx: { params: Promise<{ id: string }> }) => {
   const admin = await requireRole('admin', req);
@@ -25,8 +26,11 @@ export const PATCH = withErrors(async (req: Request, ctx: { params: Promise<{ id
       },
       { transaction },
     );
-    await audit(admin.id, change.role && change.role !== before.role ? 'user.role_changed' : 'user.access_changed', { type: 'user', id }, {
-      email: user.email, before, after: { role: user.role, disabled: !!user.disabledAt },
+    const roleChanged = !!change.role && change.role !== before.role;
+    // A new role or a disabled account starts from a fresh sign-in on every device.
+    const sessionsEnded = roleChanged || (!!user.disabledAt && !before.disabled) ? await revokeAllSessions(id, roleChanged ? 'role changed' : 'account disabled', transaction) : 0;
+    await audit(admin.id, roleChanged ? 'user.role_changed' : 'user.access_changed', { type: 'user', id }, {
+      email: user.email, before, after: { role: user.role, disabled: !!user.disabledAt }, sessionsEnded,
     }, transaction);
     return user;
   });

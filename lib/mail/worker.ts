@@ -1,0 +1,88 @@
+import { QueryTypes } from 'sequelize';
+import { getSequelize } from '@/db/connection';
+import { isPermanentSmtpFailure, sendMail } from './send';
+import { MAIL_QUEUE, REGISTER_QUEUE, RESET_QUEUE, boss, rememberWorker, wakeWorker } from './queue';
+import { prepareRegistration, prepareResetMail, type RegistrationRequest } from '@/lib/account/flows';
+
+type Claimed = { recipients: string[]; subject: string; text_body: string | null; attempts: number; max_attempts: number };
+
+/**
+ * Sends one queued message. The row is claimed by a conditional UPDATE, so a message already
+ * sent (a job handed out again after a lost answer) is never sent twice. A failure is written
+ * to the row and thrown, and pg-boss retries the job later; a 5xx refusal or the last try
+ * leaves the message failed.
+ */
+export async function deliver(mailId: number): Promise<'sent' | 'skipped' | 'failed'> {
+  const sequelize = getSequelize();
+  const [row] = await sequelize.query<Claimed>(
+    `UPDATE outgoing_mail SET attempts = attempts + 1, last_attempt_at = now()
+     WHERE id = :mailId AND state = 'queued'
+     RETURNING recipients, subject, text_body, attempts, max_attempts`,
+    { replacements: { mailId }, type: QueryTypes.SELECT },
+  );
+  if (!row) return 'skipped';
+  try {
+    await sendMail({ to: row.recipients, subject: row.subject, text: row.text_body ?? '' });
+  } catch (err) {
+    const permanent = isPermanentSmtpFailure(err);
+    const final = permanent || row.attempts >= row.max_attempts;
+    await sequelize.query(`UPDATE outgoing_mail SET state = :state, last_error = :error WHERE id = :mailId`, {
+      replacements: { mailId, state: final ? 'failed' : 'queued', error: String((err as Error).message ?? err).slice(0, 500) },
+    });
+    if (permanent) return 'failed';
+    throw err;
+  }
+  await sequelize.query(
+    `UPDATE outgoing_mail SET state = 'sent', sent_at = now(), last_error = NULL,
+       text_body = CASE WHEN sensitive THEN NULL ELSE text_body END
+     WHERE id = :mailId`,
+    { replacements: { mailId } },
+  );
+  return 'sent';
+}
+
+let starting: Promise<void> | undefined;
+
+/**
+ * Starts this process's workers (the app server calls it from instrumentation.ts). When the
+ * database is not there yet, it tries again later instead of giving up.
+ */
+export function startMailWorker(): Promise<void> {
+  starting ??= (async () => {
+    const queue = boss();
+    queue.on('error', (err) => console.error('mail queue:', (err as Error).message ?? err));
+    for (let wait = 1000; ; wait = Math.min(wait * 2, 60_000)) {
+      try {
+        await queue.start();
+        break;
+      } catch (err) {
+        console.error(`mail queue could not start (${(err as Error).message}); trying again in ${wait / 1000} s`);
+        await new Promise((r) => setTimeout(r, wait));
+      }
+    }
+    const polling = { batchSize: 1, pollingIntervalSeconds: Number(process.env.MAIL_POLL_SECONDS ?? 1) };
+    // One job per fetch, so a failure retries that message alone; after each, look again at once.
+    const handle = <T extends object>(name: string, fn: (data: T) => Promise<unknown>) =>
+      queue.work<T>(name, polling, async ([job]) => {
+        try {
+          return await fn(job.data);
+        } finally {
+          wakeWorker(name);
+        }
+      });
+    rememberWorker(MAIL_QUEUE, await handle<{ mailId: number }>(MAIL_QUEUE, (d) => deliver(Number(d.mailId))));
+    rememberWorker(RESET_QUEUE, await handle<{ email: string }>(RESET_QUEUE, (d) => prepareResetMail(d.email)));
+    rememberWorker(REGISTER_QUEUE, await handle<RegistrationRequest>(REGISTER_QUEUE, prepareRegistration));
+  })();
+  return starting;
+}
+
+export async function stopMailWorker(): Promise<void> {
+  if (!starting) return;
+  await starting;
+  rememberWorker(MAIL_QUEUE, undefined);
+  rememberWorker(RESET_QUEUE, undefined);
+  rememberWorker(REGISTER_QUEUE, undefined);
+  await boss().stop({ graceful: true, timeout: 5000 });
+  starting = undefined;
+}
