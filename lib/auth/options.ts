@@ -5,6 +5,7 @@ import SequelizeAdapter from '@next-auth/sequelize-adapter';
 import { db } from '@/db/models';
 import type { Role } from '@/db/models/user';
 import { verifyPassword } from './password';
+import { safeRedirect } from './redirect';
 import { signInSchema } from '@/lib/schemas/account';
 import { clientAddress, hitCount, recordHit } from '@/lib/rate-limit';
 import { sendMail, smtpUrl } from '@/lib/mail/send';
@@ -66,6 +67,7 @@ export function authOptions(): NextAuthOptions {
       }),
     ],
     callbacks: {
+      redirect: async (params) => safeRedirect(params),
       async signIn({ user }) {
         const found = user?.email ? await models.User.findOne({ where: { email: user.email.toLowerCase() } }) : null;
         if (found?.disabledAt) return '/signin?error=AccountDisabled';
