@@ -49,7 +49,8 @@ export async function addNote(actor: Pick<Actor, 'id' | 'role' | 'name' | 'email
   if (!submission) throw notFound('No such submission.');
   const isOwner = submission.contributorId === actor.id;
   const isModerator = hasRole(actor as Actor, 'moderator');
-  if (!isOwner && !isModerator) throw forbidden('Only the contributor and moderators take part in this thread.');
+  // Another contributor's submission answers like a missing one.
+  if (!isOwner && !isModerator) throw notFound('No such submission.');
   const review = await Review.create({ submissionId, authorId: actor.id, kind: isOwner ? 'reply' : 'note', body });
   await audit(actor.id, 'submission.note', { type: 'submission', id: submissionId }, { kind: review.kind });
   if (isOwner) {

@@ -3,7 +3,7 @@ import { db } from '@/db/models';
 import { audit } from '@/lib/audit';
 import { submissionMetadataSchema, type SubmissionMetadata } from '@/lib/schemas/submission';
 import { conflict, forbidden, notFound, HttpError } from '@/lib/http/errors';
-import type { Actor } from '@/lib/auth/actor';
+import { hasRole, type Actor } from '@/lib/auth/actor';
 import { assess, parseFiles, type IncomingFile, type Intake } from './intake';
 import { notifyModeratorsOfSubmission } from './notify';
 
@@ -52,8 +52,8 @@ async function insertCurves(submissionId: number, contributorId: string, revisio
 }
 
 /** One transaction: the submission, its raw files and its curves appear together or not at all. */
-export async function createSubmission(actor: Pick<Actor, 'id'>, metadata: SubmissionMetadata, files: IncomingFile[], options: { replacesCurveId?: number; notify?: boolean } = {}) {
-  const intake = await assess(parseFiles(files, metadata), metadata);
+export async function createSubmission(actor: Pick<Actor, 'id' | 'role'>, metadata: SubmissionMetadata, files: IncomingFile[], options: { replacesCurveId?: number; notify?: boolean } = {}) {
+  const intake = await assess(parseFiles(files, metadata), metadata, actor);
   const { Submission, Curve, sequelize } = db();
   let replaces: number | null = null;
   let revision = 1;
@@ -80,10 +80,12 @@ export async function createSubmission(actor: Pick<Actor, 'id'>, metadata: Submi
 }
 
 /** After "changes requested", the submitter sends new files and/or metadata; old revisions stay on record. */
-export async function reviseSubmission(actor: Pick<Actor, 'id'>, submissionId: number, metadataRaw: unknown | undefined, files: IncomingFile[]) {
+export async function reviseSubmission(actor: Pick<Actor, 'id' | 'role'>, submissionId: number, metadataRaw: unknown | undefined, files: IncomingFile[]) {
   const { Submission, SubmissionFile, Curve, sequelize } = db();
   const current = await Submission.findByPk(submissionId);
   if (!current) throw notFound('No such submission.');
+  // Someone who may not see the submission learns nothing, not even that it exists.
+  if (current.contributorId !== actor.id && !hasRole(actor as Actor, 'moderator')) throw notFound('No such submission.');
   if (current.contributorId !== actor.id) throw forbidden('Only the contributor who sent this submission can revise it.');
   if (current.status !== 'changes_requested') throw conflict(`This submission is ${current.status.replace('_', ' ')}; only one with changes requested can be revised.`);
   const metadata = metadataRaw === undefined ? parseMetadata(current.metadata) : parseMetadata(metadataRaw);
@@ -93,7 +95,7 @@ export async function reviseSubmission(actor: Pick<Actor, 'id'>, submissionId: n
     incoming = previous.map((f) => ({ name: f.originalName, bytes: f.content }));
     if (!metadata.files && previous.length > 1) metadata.files = previous.map((f) => ({ name: f.originalName, aoiDeg: f.aoiDeg }));
   }
-  const intake = await assess(parseFiles(incoming, metadata), metadata, submissionId);
+  const intake = await assess(parseFiles(incoming, metadata), metadata, actor, submissionId);
   const revision = current.revision + 1;
   const result = await sequelize.transaction(async (transaction) => {
     const locked = await Submission.findByPk(submissionId, { transaction, lock: transaction.LOCK.UPDATE });
