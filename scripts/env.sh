@@ -141,7 +141,8 @@ ensure_app_role() {
   if [ -n "${APP_DATABASE_URL:-}" ]; then return 0; fi
   local file="$ROOT/.data/app-db-password"
   mkdir -p "$ROOT/.data"
-  [ -s "$file" ] || head -c 32 /dev/urandom | base64 | tr -dc 'A-Za-z0-9' | head -c 32 > "$file"
+  [ -s "$file" ] || head -c 48 /dev/urandom | base64 | tr -dc 'A-Za-z0-9' > "$file"
+  chmod 600 "$file"
   local pw; pw="$(cat "$file")"
   psql -h 127.0.0.1 -p "$PGPORT" -U postgres -v ON_ERROR_STOP=1 -qtA -d postgres -v pw="$pw" >/dev/null <<'SQL'
 SELECT format('CREATE ROLE bandcone_app LOGIN PASSWORD %L NOSUPERUSER NOCREATEDB NOCREATEROLE NOINHERIT NOREPLICATION NOBYPASSRLS', :'pw')

@@ -82,7 +82,7 @@ const MATRIX: Record<string, Partial<Record<Method, Case[]>>> = {
     POST: [{ what: 'ask for a reset link', request: () => ({ path: '/api/account/reset', body: { email: 'nobody@bandcone.test' } }), expect: ALL(202) }],
   },
   'account/reset/confirm': {
-    POST: [{ what: 'an unknown reset token', request: () => ({ path: '/api/account/reset/confirm', body: { token: 'x'.repeat(43), password: 'a long enough password' } }), expect: ALL(400) }],
+    POST: [{ what: 'an unknown reset token', request: () => ({ path: '/api/account/reset/confirm', body: { token: 'x'.repeat(43), password: 'a long enough password' } }), expect: ALL(422) }],
   },
   'admin/users/[id]': {
     PATCH: [{
