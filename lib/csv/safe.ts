@@ -15,11 +15,13 @@
  *      stays on its line and cannot hide a formula behind a tab;
  *   2. a text whose first non-space character is a formula character gets a
  *      leading apostrophe (shown as text by every spreadsheet);
- *   3. inside a text, whatever follows a `,` or `;` is treated as the start of
+ *   3. inside a text, whatever follows a separator is treated as the start of
  *      a cell as well: when it begins (after spaces) with a formula character
- *      or a quote, an apostrophe goes right after the separator. So a comment
- *      line (`# contributor: x,=HYPERLINK(…)`), which a spreadsheet splits at
- *      its commas, has no cell that starts a formula or opens a quoted field;
+ *      or a quote, an apostrophe goes right after the separator. In a comment
+ *      line, written unquoted, both `,` and `;` count, so `# contributor:
+ *      x,=HYPERLINK(…)` has no cell that starts a formula or opens a quoted
+ *      field. In a data cell only `;` counts: a cell holding a comma is
+ *      quoted, and a quoted field keeps its commas in either reading;
  *   4. numbers are data and stay numbers (a negative value keeps its sign).
  *
  * Quoting of a data cell is papaparse's `unparse` (RFC 4180), with its
@@ -37,7 +39,8 @@ export type CsvCell = string | number | null | undefined;
 export const CSV_EOL = '\r\n';
 
 const FORMULA_CHARS = new Set(['=', '+', '-', '@', '\uFF1D', '\uFF0B', '\uFF0D', '\uFF20']);
-const SEPARATORS = new Set([',', ';']);
+const LINE_SEPARATORS = new Set([',', ';']);
+const CELL_SEPARATORS = new Set([';']);
 
 function isControl(code: number): boolean {
   return code < 0x20 || code === 0x7f || (code >= 0x80 && code < 0xa0) || code === 0x2028 || code === 0x2029;
@@ -76,13 +79,17 @@ export function startsFormula(text: string): boolean {
   return i < text.length && FORMULA_CHARS.has(text[i]);
 }
 
-/** Rules 1–3: text that is safe however a spreadsheet splits it. */
-export function inertText(text: string): string {
+/**
+ * Rules 1–3: text that is safe however a spreadsheet splits it. `inside` says where the
+ * text goes: a quoted-when-needed data cell, or the bare text of a comment line.
+ */
+export function inertText(text: string, inside: 'cell' | 'line' = 'cell'): string {
+  const separators = inside === 'line' ? LINE_SEPARATORS : CELL_SEPARATORS;
   const s = oneLineText(text);
   let out = startsFormula(s) ? "'" : '';
   let last = 0;
   for (let i = 0; i < s.length; i++) {
-    if (!SEPARATORS.has(s[i])) continue;
+    if (!separators.has(s[i])) continue;
     const j = skipSpaces(s, i + 1);
     if (j < s.length && (FORMULA_CHARS.has(s[j]) || s[j] === '"')) {
       out += s.slice(last, i + 1) + "'";
@@ -94,7 +101,7 @@ export function inertText(text: string): string {
 
 /** A `#` comment line: the whole text is inert, so every cell a spreadsheet cuts from it is safe. */
 export function commentLine(text: string): string {
-  return `# ${inertText(text)}`;
+  return `# ${inertText(text, 'line')}`;
 }
 
 /**

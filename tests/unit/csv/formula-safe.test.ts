@@ -129,7 +129,7 @@ describe('chart and study tables', () => {
   });
 
   it('numbers stay numbers, text is neutralised with an apostrophe (papaparse quoting)', () => {
-    expect(rowsToCsv([['=A1,"x"', -0.5, 0.874 * 100, null]])).toBe(`"'=A1,'""x""",-0.5,87.4,\r\n`);
+    expect(rowsToCsv([['=A1,"x"', -0.5, 0.874 * 100, null]])).toBe(`"'=A1,""x""",-0.5,87.4,\r\n`);
     expect(csvRow(['# label', '-1'])).toBe("# label,'-1");
   });
 
