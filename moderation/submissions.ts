@@ -67,7 +67,9 @@ export async function createSubmission(actor: Pick<Actor, 'id' | 'role'>, metada
     const submission = await Submission.create(
       {
         contributorId: actor.id, label: metadata.label, lines: metadata.lines, metadata: metadata as unknown as Record<string, unknown>,
-        checks: intake.checks, checkLevel: intake.level, replacesCurveId: replaces,
+        // A correction of a verified curve starts at that curve's next revision, so the submission and
+        // its curves share one number (the decision selects its curves by it).
+        checks: intake.checks, checkLevel: intake.level, replacesCurveId: replaces, revision,
       },
       { transaction },
     );
@@ -75,7 +77,7 @@ export async function createSubmission(actor: Pick<Actor, 'id' | 'role'>, metada
     await audit(actor.id, 'submission.created', { type: 'submission', id: submission.id }, { label: metadata.label, files: intake.files.map((f) => f.name), curveIds }, transaction);
     return { submission, curveIds };
   });
-  if (options.notify !== false) await notifyModeratorsOfSubmission(result.submission.id, metadata.label, 1);
+  if (options.notify !== false) await notifyModeratorsOfSubmission(result.submission.id, metadata.label, revision);
   return { id: result.submission.id, status: result.submission.status, checks: intake.checks, curveIds: result.curveIds, nEff: intake.nEff };
 }
 
