@@ -1,26 +1,35 @@
 import { Sequelize } from 'sequelize';
 import pg from 'pg';
-import { databaseUrl } from './config';
+import { appDatabaseUrl, databaseUrl } from './config';
 
 // Keep one pool per process even when Next reloads modules in development.
-const globalForDb = globalThis as unknown as { bandconeSequelize?: Sequelize };
+const globalForDb = globalThis as unknown as { bandconeSequelize?: Sequelize; bandconeOwnerSequelize?: Sequelize };
 
+function connect(url: string): Sequelize {
+  return new Sequelize(url, {
+    dialect: 'postgres',
+    dialectModule: pg,
+    logging: process.env.DB_LOG === '1' ? console.log : false,
+    pool: { max: Number(process.env.DB_POOL_MAX ?? 10), min: 0, idle: 10_000 },
+    define: { underscored: true },
+  });
+}
+
+/** The pool for ordinary work: the app role (APP_DATABASE_URL) when set, else the owner. */
 export function getSequelize(): Sequelize {
-  if (!globalForDb.bandconeSequelize) {
-    globalForDb.bandconeSequelize = new Sequelize(databaseUrl(), {
-      dialect: 'postgres',
-      dialectModule: pg,
-      logging: process.env.DB_LOG === '1' ? console.log : false,
-      pool: { max: Number(process.env.DB_POOL_MAX ?? 10), min: 0, idle: 10_000 },
-      define: { underscored: true },
-    });
-  }
+  globalForDb.bandconeSequelize ??= connect(appDatabaseUrl());
   return globalForDb.bandconeSequelize;
 }
 
+/** The owner's pool (DATABASE_URL), for migrations: only the owner changes the schema. */
+export function getOwnerSequelize(): Sequelize {
+  globalForDb.bandconeOwnerSequelize ??= connect(databaseUrl());
+  return globalForDb.bandconeOwnerSequelize;
+}
+
 export async function closeSequelize(): Promise<void> {
-  if (globalForDb.bandconeSequelize) {
-    await globalForDb.bandconeSequelize.close();
-    globalForDb.bandconeSequelize = undefined;
-  }
+  const pools = [globalForDb.bandconeSequelize, globalForDb.bandconeOwnerSequelize];
+  globalForDb.bandconeSequelize = undefined;
+  globalForDb.bandconeOwnerSequelize = undefined;
+  for (const pool of pools) await pool?.close();
 }

@@ -1,9 +1,9 @@
-import { getSequelize, closeSequelize } from './connection';
+import { getOwnerSequelize, closeSequelize } from './connection';
 import { createMigrator } from './migrator';
 
 async function main() {
   const direction = process.argv[2] ?? 'up';
-  const migrator = createMigrator(getSequelize());
+  const migrator = createMigrator(getOwnerSequelize());
   if (direction === 'down') {
     const done = await migrator.down();
     console.log(`reverted: ${done.map((m) => m.name).join(', ') || 'nothing'}`);

@@ -50,7 +50,8 @@ export async function addNote(actor: Pick<Actor, 'id' | 'role' | 'name' | 'email
   if (!submission) throw notFound('No such submission.');
   const isOwner = submission.contributorId === actor.id;
   const isModerator = hasRole(actor as Actor, 'moderator');
-  if (!isOwner && !isModerator) throw forbidden('Only the contributor and moderators take part in this thread.');
+  // Another contributor's submission answers like a missing one.
+  if (!isOwner && !isModerator) throw notFound('No such submission.');
   // The note, its audit row and its mail commit together.
   const review = await sequelize.transaction(async (transaction) => {
     const review = await Review.create({ submissionId, authorId: actor.id, kind: isOwner ? 'reply' : 'note', body }, { transaction });

@@ -9,6 +9,7 @@ import type { CurvePoints, Metrics, Check } from '@/lib/engine/types';
 import { HttpError, unprocessable, type ErrorDetail } from '@/lib/http/errors';
 import type { SubmissionMetadata } from '@/lib/schemas/submission';
 import { db } from '@/db/models';
+import { hasRole, type Actor } from '@/lib/auth/actor';
 
 export const MAX_FILES = 20;
 export { MAX_FILE_BYTES, MAX_ROWS };
@@ -80,7 +81,20 @@ export function parseFiles(files: IncomingFile[], metadata: SubmissionMetadata):
 const LEVEL_RANK = { info: 0, warn: 1, error: 2 } as const;
 
 /** The automatic checks, plus the one that needs the library: is this data already in it? */
-export async function assess(parsed: ParsedFile[], metadata: SubmissionMetadata, ignoreSubmissionId?: number): Promise<Intake> {
+/** The effective-index range the curves table (and the cone model) accepts. */
+const N_EFF_STORED: [number, number] = [1, 4];
+
+/**
+ * `viewer` is who sent the files: a duplicate is named only when that person may
+ * see it (a verified curve, one of their own, or anything for a moderator);
+ * otherwise the check says only that the same points exist.
+ */
+export async function assess(
+  parsed: ParsedFile[],
+  metadata: SubmissionMetadata,
+  viewer: Pick<Actor, 'id' | 'role'>,
+  ignoreSubmissionId?: number,
+): Promise<Intake> {
   const set = parsed.length > 1 ? parsed.map((p) => ({ aoiDeg: p.aoiDeg, metrics: p.metrics })) : undefined;
   const checks: Intake['checks'] = [];
   parsed.forEach((p) => {
@@ -94,17 +108,24 @@ export async function assess(parsed: ParsedFile[], metadata: SubmissionMetadata,
       status: { [Op.ne]: 'superseded' },
       ...(ignoreSubmissionId ? { submissionId: { [Op.ne]: ignoreSubmissionId } } : {}),
     },
-    attributes: ['id', 'pointsHash', 'label'],
+    attributes: ['id', 'pointsHash', 'label', 'status', 'contributorId'],
   });
+  const seesAll = hasRole(viewer as Actor, 'moderator');
   for (const d of dupes) {
     const file = parsed.find((p) => p.pointsHash === d.pointsHash);
-    checks.push({ code: 'duplicate', level: 'warn', message: `The same points are already in the library as curve ${d.id} (${d.label}).`, file: file?.name });
+    const named = seesAll || d.status === 'verified' || d.contributorId === viewer.id;
+    const message = named
+      ? `The same points are already in the library as curve ${d.id} (${d.label}).`
+      : 'A curve with the same points exists.';
+    checks.push({ code: 'duplicate', level: 'warn', message, file: file?.name });
   }
   let nEff: number | null = null;
   if (set) {
     try {
       const angles = parsed.filter((p) => p.metrics.cwlNm !== null).map((p) => ({ aoiDeg: p.aoiDeg, cwlNm: p.metrics.cwlNm as number }));
       nEff = fitEffectiveIndex(angles).nEff;
+      // Outside the stored range the set check ("set-neff") already warns the moderator; store no value.
+      if (!(nEff >= N_EFF_STORED[0] && nEff <= N_EFF_STORED[1])) nEff = null;
     } catch {
       nEff = null; // the set check above already says why
     }

@@ -4,7 +4,7 @@ import { audit } from '@/lib/audit';
 import { submissionMetadataSchema, type SubmissionMetadata } from '@/lib/schemas/submission';
 import { conflict, forbidden, notFound, HttpError } from '@/lib/http/errors';
 import { parseJsonText } from '@/lib/http/body';
-import type { Actor } from '@/lib/auth/actor';
+import { hasRole, type Actor } from '@/lib/auth/actor';
 import { assess, parseFiles, type IncomingFile, type Intake } from './intake';
 import { notifyModeratorsOfSubmission } from './notify';
 
@@ -47,8 +47,8 @@ async function insertCurves(submissionId: number, contributorId: string, revisio
 }
 
 /** One transaction: the submission, its raw files and its curves appear together or not at all. */
-export async function createSubmission(actor: Pick<Actor, 'id'>, metadata: SubmissionMetadata, files: IncomingFile[], options: { replacesCurveId?: number; notify?: boolean } = {}) {
-  const intake = await assess(parseFiles(files, metadata), metadata);
+export async function createSubmission(actor: Pick<Actor, 'id' | 'role'>, metadata: SubmissionMetadata, files: IncomingFile[], options: { replacesCurveId?: number; notify?: boolean } = {}) {
+  const intake = await assess(parseFiles(files, metadata), metadata, actor);
   const { Submission, Curve, sequelize } = db();
   let replaces: number | null = null;
   let revision = 1;
@@ -62,23 +62,27 @@ export async function createSubmission(actor: Pick<Actor, 'id'>, metadata: Submi
     const submission = await Submission.create(
       {
         contributorId: actor.id, label: metadata.label, lines: metadata.lines, metadata: metadata as unknown as Record<string, unknown>,
-        checks: intake.checks, checkLevel: intake.level, replacesCurveId: replaces,
+        // A correction of a verified curve starts at that curve's next revision, so the submission and
+        // its curves share one number (the decision selects its curves by it).
+        checks: intake.checks, checkLevel: intake.level, replacesCurveId: replaces, revision,
       },
       { transaction },
     );
     const curveIds = await insertCurves(submission.id, actor.id, revision, metadata, intake, 'submitted', transaction, replaces);
     await audit(actor.id, 'submission.created', { type: 'submission', id: submission.id }, { label: metadata.label, files: intake.files.map((f) => f.name), curveIds }, transaction);
-    if (options.notify !== false) await notifyModeratorsOfSubmission(submission.id, metadata.label, 1, transaction);
+    if (options.notify !== false) await notifyModeratorsOfSubmission(submission.id, metadata.label, revision, transaction);
     return { submission, curveIds };
   });
   return { id: result.submission.id, status: result.submission.status, checks: intake.checks, curveIds: result.curveIds, nEff: intake.nEff };
 }
 
 /** After "changes requested", the submitter sends new files and/or metadata; old revisions stay on record. */
-export async function reviseSubmission(actor: Pick<Actor, 'id'>, submissionId: number, metadataRaw: unknown | undefined, files: IncomingFile[]) {
+export async function reviseSubmission(actor: Pick<Actor, 'id' | 'role'>, submissionId: number, metadataRaw: unknown | undefined, files: IncomingFile[]) {
   const { Submission, SubmissionFile, Curve, sequelize } = db();
   const current = await Submission.findByPk(submissionId);
   if (!current) throw notFound('No such submission.');
+  // Someone who may not see the submission learns nothing, not even that it exists.
+  if (current.contributorId !== actor.id && !hasRole(actor as Actor, 'moderator')) throw notFound('No such submission.');
   if (current.contributorId !== actor.id) throw forbidden('Only the contributor who sent this submission can revise it.');
   if (current.status !== 'changes_requested') throw conflict(`This submission is ${current.status.replace('_', ' ')}; only one with changes requested can be revised.`);
   const metadata = metadataRaw === undefined ? parseMetadata(current.metadata) : parseMetadata(metadataRaw);
@@ -88,7 +92,7 @@ export async function reviseSubmission(actor: Pick<Actor, 'id'>, submissionId: n
     incoming = previous.map((f) => ({ name: f.originalName, bytes: f.content }));
     if (!metadata.files && previous.length > 1) metadata.files = previous.map((f) => ({ name: f.originalName, aoiDeg: f.aoiDeg }));
   }
-  const intake = await assess(parseFiles(incoming, metadata), metadata, submissionId);
+  const intake = await assess(parseFiles(incoming, metadata), metadata, actor, submissionId);
   const revision = current.revision + 1;
   const result = await sequelize.transaction(async (transaction) => {
     const locked = await Submission.findByPk(submissionId, { transaction, lock: transaction.LOCK.UPDATE });

@@ -4,11 +4,7 @@ import { hasRole, type Actor } from '@/lib/auth/actor';
 import { SUBMISSION_STATUSES } from '@/db/models/submission';
 import { forbidden, notFound, unprocessable } from '@/lib/http/errors';
 
-export function parseId(raw: string): number {
-  const id = Number(raw);
-  if (!Number.isInteger(id) || id <= 0 || id > 2_147_483_647) throw notFound('No such item.');
-  return id;
-}
+export { parseId } from '@/lib/http/ids';
 
 type WithAuthor = { author?: { name: string | null; email: string } };
 type WithContributor = { contributor?: { name: string | null; email: string } };
@@ -47,7 +43,8 @@ async function visibleSubmission(actor: Actor, id: number) {
   const { Submission, User } = db();
   const s = await Submission.findByPk(id, { include: [{ model: User, as: 'contributor', attributes: ['id', 'name', 'email'] }] });
   if (!s) throw notFound('No such submission.');
-  if (s.contributorId !== actor.id && !hasRole(actor, 'moderator')) throw forbidden('This submission belongs to another contributor.');
+  // Another contributor's submission answers like a missing one.
+  if (s.contributorId !== actor.id && !hasRole(actor, 'moderator')) throw notFound('No such submission.');
   return s;
 }
 

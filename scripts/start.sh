@@ -21,9 +21,11 @@ ensure_node_modules
 ensure_secret
 start_cluster "$ROOT/.data/pg" "$PGPORT"
 ensure_database "$DB_NAME"
+ensure_app_role "$DB_NAME"
 log "migrating"
 npx tsx db/migrate.ts up
 npx tsx seeds/run.ts --if-empty
+grant_app_role "$DB_NAME"
 
 if [ -z "${SMTP_URL_EXTERNAL:-}" ] && [[ "$SMTP_URL" == smtp://127.0.0.1:* ]]; then
   log "starting the mail catcher on 127.0.0.1:$SMTP_PORT"
@@ -33,7 +35,8 @@ fi
 
 build_if_stale
 log "serving on http://127.0.0.1:$PORT"
-start_bg "$ROOT/.data/server.log" env NODE_ENV=production node --import tsx server.ts -H 127.0.0.1 -p "$PORT"
+# The server alone connects as the least-privilege app role; migrations and seeds used the owner.
+start_bg "$ROOT/.data/server.log" env NODE_ENV=production APP_DATABASE_URL="$APP_DATABASE_URL" node --import tsx server.ts -H 127.0.0.1 -p "$PORT"
 log "server log: .data/server.log"
 tail -n 0 -f "$ROOT/.data/server.log" &
 STARTED_PIDS+=($!)

@@ -3,7 +3,9 @@
  * DOM (except `downloadText`) so it can be tested and reused by tables.
  */
 
-export type CsvCell = string | number | null | undefined;
+import { csvRows, type CsvCell } from '@/lib/csv/safe';
+
+export type { CsvCell };
 
 export interface CsvColumn {
   header: string;
@@ -16,39 +18,13 @@ export interface CsvSeries {
   y: readonly number[];
 }
 
-/** RFC 4180 line ends, which every spreadsheet accepts. */
-const EOL = '\r\n';
-
-/**
- * Spreadsheets run a text cell that starts with one of these as a formula (or, for
- * tab and CR, after the whitespace is trimmed). Labels are typed by contributors, so
- * a leading apostrophe keeps a "=HYPERLINK(…)" label inert while staying visible.
- */
-const FORMULA_START = /^[=+\-@\t\r]/;
-
-export function neutraliseText(text: string): string {
-  return FORMULA_START.test(text) ? `'${text}` : text;
-}
-
 /**
  * Numbers print at 12 significant digits so float noise (87.40000000000001) does not
- * reach the file, while every digit an instrument can resolve survives.
+ * reach the file, while every digit an instrument can resolve survives. Text cells
+ * (labels typed by contributors) follow the one formula-safe rule of lib/csv/safe.ts.
  */
-export function formatCsvNumber(value: number): string {
-  if (!Number.isFinite(value)) return '';
-  const n = Number(value.toPrecision(12));
-  return Object.is(n, -0) ? '0' : String(n);
-}
-
-export function escapeCell(cell: CsvCell): string {
-  if (cell == null) return '';
-  // Numbers are data, not text: a negative value must stay a number, so only text is neutralised.
-  const text = typeof cell === 'number' ? formatCsvNumber(cell) : neutraliseText(cell);
-  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
-}
-
 export function rowsToCsv(rows: readonly (readonly CsvCell[])[]): string {
-  return rows.map((row) => row.map(escapeCell).join(',')).join(EOL) + EOL;
+  return csvRows(rows, { digits: 12 });
 }
 
 /** Columns may differ in length (curves sampled differently); short ones end in blanks. */

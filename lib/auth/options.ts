@@ -5,6 +5,7 @@ import SequelizeAdapter from '@next-auth/sequelize-adapter';
 import { db } from '@/db/models';
 import type { Role } from '@/db/models/user';
 import { passwordMatches } from './password';
+import { safeRedirect } from './redirect';
 import { signInSchema } from '@/lib/schemas/account';
 import { clientAddress, hitCount, recordHit } from '@/lib/rate-limit';
 import { smtpUrl } from '@/lib/mail/send';
@@ -71,6 +72,7 @@ export function authOptions(): NextAuthOptions {
       },
     },
     callbacks: {
+      redirect: async (params) => safeRedirect(params),
       async signIn({ user, account, email }) {
         // Asking for a link: always the same answer; sendSignInLink decides what the mail says.
         if (email?.verificationRequest) return true;

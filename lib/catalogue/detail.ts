@@ -4,19 +4,17 @@
  * curves sharing its label, and a citation line.
  */
 
+import { parseId } from '@/lib/http/ids';
 import { QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
 import type { Curve } from '@/db/models/curve';
 import type { Actor } from '@/lib/auth/actor';
-import { notFound } from '@/lib/http/errors';
 import { findLine } from '@/lib/engine/lines';
 import { unitSpread, type UnitSpread } from '@/lib/engine/spread';
 import { loadReadableCurve, readableWhere } from './points';
 
 export function parseCurveId(raw: string): number {
-  const id = Number(raw);
-  if (!/^\d+$/.test(raw) || !Number.isSafeInteger(id) || id <= 0 || id > 2_147_483_647) throw notFound(`No curve "${raw.slice(0, 40)}".`);
-  return id;
+  return parseId(raw, 'curve');
 }
 
 export interface CurveDetail {

@@ -6,7 +6,7 @@
 import { QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
 import { HttpError, unprocessable } from '@/lib/http/errors';
-import { neutraliseCell } from '@/lib/engine/csv';
+import { csvRow } from '@/lib/csv/safe';
 import { citationOf } from './detail';
 import { matchingVerifiedIds } from './search';
 import type { SearchParams } from './search-params';
@@ -14,23 +14,12 @@ import type { SearchParams } from './search-params';
 export const MAX_EXPORT_CURVES = 10_000;
 const BATCH = 50;
 
-type ExportRow = {
+export type ExportRow = {
   id: number; label: string; maker: string | null; lines: string[]; serial: string | null; licence: string; revision: number;
   instrument: string; aoi_deg: number; lab: string | null; measured_on: string | null; verified_at: Date | null; created_at: Date;
   cwl_nm: number | null; fwhm_nm: number | null; peak_t: number; contributor: string | null;
   wavelength_nm: number[]; transmission: number[];
 };
-
-/**
- * A text cell a spreadsheet will not run: neutralised when it starts with a
- * formula character (also after leading spaces, which some programs trim), then
- * quoted when it holds a comma, quote or line break.
- */
-export function safeCell(text: string): string {
-  const one = text.replace(/\r\n|\r|\n/g, ' ');
-  const t = /^\s+[=+\-@]/.test(one) ? `'${one}` : neutraliseCell(one);
-  return /[",]/.test(t) ? `"${t.replace(/"/g, '""')}"` : t;
-}
 
 async function loadBatch(ids: number[]): Promise<ExportRow[]> {
   const rows = await db().sequelize.query<ExportRow>(
@@ -51,14 +40,14 @@ function citation(r: ExportRow, origin: string) {
   );
 }
 
-function headerBlock(r: ExportRow, origin: string): string {
+export function headerBlock(r: ExportRow, origin: string): string {
   const meta: [string, string | number | null][] = [
     ['label', r.label], ['maker', r.maker], ['lines', r.lines.join('; ')], ['serial', r.serial], ['licence', r.licence],
     ['revision', r.revision], ['contributor', r.contributor], ['lab', r.lab], ['measured_on', r.measured_on], ['instrument', r.instrument],
     ['aoi_deg', r.aoi_deg], ['cwl_nm', r.cwl_nm], ['fwhm_nm', r.fwhm_nm], ['peak_t', r.peak_t], ['citation', citation(r, origin)],
   ];
   const lines = [`# curve ${r.id}`];
-  for (const [k, v] of meta) if (v !== null && v !== undefined) lines.push(`# ${k},${typeof v === 'number' ? String(v) : safeCell(v)}`);
+  for (const [k, v] of meta) if (v !== null && v !== undefined) lines.push(csvRow([`# ${k}`, v]));
   return lines.join('\n') + '\n';
 }
 
@@ -106,14 +95,20 @@ function streamOf(ids: number[], head: string, each: (r: ExportRow, first: boole
   });
 }
 
-export async function exportCsv(p: SearchParams, query: string, origin: string) {
-  const ids = await idsFor(p);
-  const head =
-    `# bandcone export: ${ids.length} verified curve(s), long format, wavelength nm (standard air), transmission fraction 0-1\n` +
-    `# query,${safeCell(query || '(all verified curves)')}\n` +
+/** The opening lines of a bulk CSV export. */
+export function exportHead(count: number, query: string): string {
+  return (
+    `# bandcone export: ${count} verified curve(s), long format, wavelength nm (standard air), transmission fraction 0-1\n` +
+    `${csvRow(['# query', query || '(all verified curves)'])}\n` +
     `# generated,${new Date().toISOString()}\n` +
     `# each curve keeps its own licence and citation (see its block)\n` +
-    'curve_id,wavelength_nm,transmission\n';
+    'curve_id,wavelength_nm,transmission\n'
+  );
+}
+
+export async function exportCsv(p: SearchParams, query: string, origin: string) {
+  const ids = await idsFor(p);
+  const head = exportHead(ids.length, query);
   return { count: ids.length, stream: streamOf(ids, head, (r) => headerBlock(r, origin) + rowsOf(r), '') };
 }
 

@@ -47,6 +47,10 @@ export function errorResponse(err: unknown): NextResponse {
     const e = err as StatusCarrier;
     return NextResponse.json({ error: e.message, details: Array.isArray(e.details) ? e.details : [] }, { status: e.status });
   }
+  // A path or query with broken percent-encoding (e.g. %E0%A4%A) fails to decode: the client's fault.
+  if (err instanceof URIError) {
+    return NextResponse.json({ error: 'The address holds broken percent-encoding; encode it as UTF-8.', details: [] }, { status: 400 });
+  }
   console.error(err);
   return NextResponse.json({ error: 'Something went wrong on our side; nothing was saved.', details: [] }, { status: 500 });
 }

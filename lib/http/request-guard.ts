@@ -73,7 +73,25 @@ export function routedPath(rawUrl: string): string {
   }
 }
 
+/**
+ * A path whose percent-encoding is not valid UTF-8 (e.g. /api/curves/%E0%A4%A) makes Next fail
+ * while decoding route params, answering a bare 500. It is the client's mistake: 400 with a reason.
+ */
+function brokenEncoding(rawPath: string): GuardRefusal | null {
+  const q = rawPath.indexOf('?');
+  const path = q >= 0 ? rawPath.slice(0, q) : rawPath;
+  if (!path.includes('%')) return null;
+  try {
+    decodeURIComponent(path);
+    return null;
+  } catch {
+    return { status: 400, error: 'The address holds broken percent-encoding; encode it as UTF-8.' };
+  }
+}
+
 export function guardRequest({ method, path: rawPath, headers }: GuardInput): GuardRefusal | null {
+  const broken = brokenEncoding(rawPath);
+  if (broken) return broken;
   const m = method.toUpperCase();
   if (!STATE_CHANGING.has(m)) return null;
   const path = routedPath(rawPath);

@@ -116,9 +116,9 @@ function rawOf(o: Optic): OpticRaw {
 async function ownedForChange(actor: Actor, id: number, transaction: import('sequelize').Transaction) {
   const { Optic } = db();
   const o = await Optic.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
-  if (!o) throw notFound(`No optic ${id}.`);
+  // Someone else's private optic answers exactly like a missing one; examples are visible, so they say why.
+  if (!o || (!o.isExample && o.ownerId !== actor.id)) throw notFound(`No optic ${id} that you can read.`);
   if (o.isExample) throw forbidden('Example optics are read-only; save a copy of your own to change it.');
-  if (o.ownerId !== actor.id) throw forbidden('Only the person who saved this optic can change or delete it.');
   return o;
 }
 

@@ -5,6 +5,7 @@
  */
 
 import { rowsToCsv, type CsvCell } from '@/components/charts/csv';
+import { commentLine } from '@/lib/csv/safe';
 import type { StudyResults } from './compute';
 import type { CurveStudy, StudySettings } from './types';
 import { verdictFor } from './verdict';
@@ -14,7 +15,7 @@ const nameOf = (st: CurveStudy) => (st.curve.id != null ? `#${st.curve.id} ${st.
 const round = (v: number | null, d: number) => (v == null ? 'none' : String(Math.round(v * 10 ** d) / 10 ** d));
 
 function section(title: string, rows: CsvCell[][]): string {
-  return `# ${title}\r\n${rowsToCsv(rows)}`;
+  return `${commentLine(title)}\r\n${rowsToCsv(rows)}`;
 }
 
 /** Columns of unequal length padded with blanks (curves are sampled differently). */
@@ -32,8 +33,8 @@ export function studyCsv(results: StudyResults, s: StudySettings): string {
   parts.push(
     [
       '# Bandcone cone study',
-      `# optic: ${o.name}; f/${o.fNumber}; obstruction ${o.obstruction}; chief-ray angle at the field edge ${o.fieldAngleDeg} deg; mapping ${o.mapping}`,
-      `# pre-shift ${s.preShiftNm} nm; temperature ${s.tempC == null ? 'not set' : `${s.tempC} C`}; coefficient ${s.tempCoeffNmPerC == null ? 'not set' : `${s.tempCoeffNmPerC} nm/C`}; radial velocity ${s.radialVelocityKms} km/s`,
+      commentLine(`optic: ${o.name}; f/${o.fNumber}; obstruction ${o.obstruction}; chief-ray angle at the field edge ${o.fieldAngleDeg} deg; mapping ${o.mapping}`),
+      commentLine(`pre-shift ${s.preShiftNm} nm; temperature ${s.tempC == null ? 'not set' : `${s.tempC} C`}; coefficient ${s.tempCoeffNmPerC == null ? 'not set' : `${s.tempCoeffNmPerC} nm/C`}; radial velocity ${s.radialVelocityKms} km/s`),
       '# model: first-order thin-film effective-index model; estimates only. Rely on the maker\'s data for decisions.',
       '',
     ].join('\r\n'),

@@ -200,13 +200,14 @@ describe('changing and deleting', () => {
     expect((await send(owner, 'PATCH', `/api/optics/${mine.id}`, { name: null })).status).toBe(422);
   });
 
-  it('refuses a change from a visitor (401), another user (403) or on an example (403)', async () => {
+  it('refuses a change from a visitor (401), another user (404, like a missing optic) or on an example (403)', async () => {
     expect((await send(anonymous(), 'PATCH', `/api/optics/${mine.id}`, { name: 'stolen' })).status).toBe(401);
     const res = await send(other, 'PATCH', `/api/optics/${mine.id}`, { name: 'stolen' });
-    expect(res.status).toBe(403);
-    expect((await json<ErrorBody>(res)).error).toMatch(/only the person/i);
+    const missing = await send(other, 'PATCH', '/api/optics/99999998', { name: 'stolen' });
+    expect([res.status, missing.status]).toEqual([404, 404]);
+    expect((await json<ErrorBody>(res)).error).not.toMatch(/only the person|belongs/i);
     const admin = await signIn('admin@bandcone.test');
-    expect((await send(admin, 'PATCH', `/api/optics/${mine.id}`, { name: 'stolen' })).status).toBe(403);
+    expect((await send(admin, 'PATCH', `/api/optics/${mine.id}`, { name: 'stolen' })).status).toBe(404);
     const onExample = await send(owner, 'PATCH', `/api/optics/${example.id}`, { name: 'mine now' });
     expect(onExample.status).toBe(403);
     expect((await json<ErrorBody>(onExample)).error).toMatch(/read-only/);
@@ -219,7 +220,7 @@ describe('changing and deleting', () => {
 
   it('lets only the owner delete, never an example', async () => {
     expect((await send(anonymous(), 'DELETE', `/api/optics/${mine.id}`)).status).toBe(401);
-    expect((await send(other, 'DELETE', `/api/optics/${mine.id}`)).status).toBe(403);
+    expect((await send(other, 'DELETE', `/api/optics/${mine.id}`)).status).toBe(404);
     expect((await send(owner, 'DELETE', `/api/optics/${example.id}`)).status).toBe(403);
     expect(await count('optics', `id = ${example.id}`)).toBe(1);
     const res = await send(owner, 'DELETE', `/api/optics/${mine.id}`);

@@ -199,8 +199,8 @@ describe('reading submissions: every role', () => {
     await refused(() => moderator.fetch('/api/submissions?status=lost'), 422, /status/);
   });
 
-  it('GET /api/submissions/:id: the owner, a token, moderators and admins read it; another contributor gets 403; a missing id 404', async () => {
-    const expected: Record<Who, number> = { anonymous: 401, owner: 200, other: 403, moderator: 200, admin: 200, token: 200 };
+  it('GET /api/submissions/:id: the owner, a token, moderators and admins read it; another contributor gets 404 like a missing id', async () => {
+    const expected: Record<Who, number> = { anonymous: 401, owner: 200, other: 404, moderator: 200, admin: 200, token: 200 };
     for (const who of Object.keys(expected) as Who[]) {
       const res = await clients[who].fetch(`/api/submissions/${mine.id}`);
       expect([who, res.status]).toEqual([who, expected[who]]);
@@ -216,7 +216,7 @@ describe('reading submissions: every role', () => {
   });
 
   it('GET …/files/:fileId returns the bytes exactly as uploaded to the same people, 404 for a file of another submission', async () => {
-    const expected: Record<Who, number> = { anonymous: 401, owner: 200, other: 403, moderator: 200, admin: 200, token: 200 };
+    const expected: Record<Who, number> = { anonymous: 401, owner: 200, other: 404, moderator: 200, admin: 200, token: 200 };
     for (const who of Object.keys(expected) as Who[]) {
       const res = await clients[who].fetch(`/api/submissions/${mine.id}/files/${fileId}`);
       expect([who, res.status]).toEqual([who, expected[who]]);
@@ -235,7 +235,7 @@ describe('the thread: POST /api/submissions/:id/notes', () => {
   it('the owner and moderators write; others are refused; each note mails the other side', async () => {
     const s = await submit(owner);
     await refused(() => post(anonymous(), `/api/submissions/${s.id}/notes`, { body: 'hello' }), 401);
-    await refused(() => post(other, `/api/submissions/${s.id}/notes`, { body: 'hello' }), 403);
+    await refused(() => post(other, `/api/submissions/${s.id}/notes`, { body: 'hello' }), 404);
     await refused(() => post(owner, `/api/submissions/${s.id}/notes`, { body: '   ' }), 422);
     await refused(() => post(owner, '/api/submissions/999999999/notes', { body: 'hello' }), 404);
     for (const [who, kind] of [['moderator', 'note'], ['owner', 'reply'], ['admin', 'note'], ['token', 'reply']] as const) {
@@ -307,7 +307,7 @@ describe('revisions: POST /api/submissions/:id/revise', () => {
     await refused(() => revise('owner'), 409, /changes requested/);
     expect((await post(moderator, `/api/submissions/${s.id}/review`, { decision: 'request_changes', note: 'Please remeasure.' })).status).toBe(200);
     await refused(() => revise('anonymous'), 401);
-    await refused(() => revise('other'), 403);
+    await refused(() => revise('other'), 404);
     await refused(() => revise('moderator'), 403);
     await refused(() => revise('admin'), 403);
     const lines = curveCsv({ noiseSeed: 77 }).split('\n');

@@ -2,50 +2,38 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import {
   columnsToCsv,
   downloadText,
-  escapeCell,
   fileNameFor,
-  formatCsvNumber,
-  neutraliseText,
   rowsToCsv,
   seriesToColumns,
   seriesToCsv,
 } from '@/components/charts/csv';
 
 describe('formula injection', () => {
-  it.each(['=1+2', '+1', '-1', '@SUM(A1)', '\tfoo', '\rbar', '=HYPERLINK("http://x","y")'])('neutralises %j', (text) => {
-    expect(neutraliseText(text).startsWith("'")).toBe(true);
-    expect(escapeCell(text)).toContain("'" + text.slice(0, 1));
+  it.each(['=1+2', '+1', '-1', '@SUM(A1)', '\t=foo', '\r+bar', '=HYPERLINK("http://x","y")'])('neutralises %j', (text) => {
+    const cell = rowsToCsv([[text]]).slice(0, -2);
+    expect(cell.replace(/^"/, '').startsWith("'")).toBe(true);
+  });
+
+  it('turns a leading tab or CR into a space', () => {
+    expect(rowsToCsv([['\tfoo', '\rbar']])).toBe('" foo"," bar"\r\n');
   });
 
   it('leaves ordinary text and numbers alone', () => {
-    expect(escapeCell('Hα 656.28')).toBe('Hα 656.28');
-    expect(escapeCell('a=b')).toBe('a=b');
-    // A negative number is data, not a formula.
-    expect(escapeCell(-0.5)).toBe('-0.5');
-  });
-
-  it('quotes a neutralised cell that also needs quoting', () => {
-    expect(escapeCell('=A1,"x"')).toBe(`"'=A1,""x"""`);
+    expect(rowsToCsv([['Hα 656.28', 'a=b', -0.5]])).toBe('Hα 656.28,a=b,-0.5\r\n');
   });
 });
 
 describe('cells and rows', () => {
-  it('quotes commas, quotes and line breaks', () => {
-    expect(escapeCell('a,b')).toBe('"a,b"');
-    expect(escapeCell('say "hi"')).toBe('"say ""hi"""');
-    expect(escapeCell('two\nlines')).toBe('"two\nlines"');
+  it('quotes commas and quotes; line breaks inside text become spaces', () => {
+    expect(rowsToCsv([['a,b', 'say "hi"', 'two\nlines']])).toBe('"a,b","say ""hi""",two lines\r\n');
   });
 
   it('writes empty cells for missing values', () => {
-    expect(escapeCell(null)).toBe('');
-    expect(escapeCell(undefined)).toBe('');
-    expect(escapeCell(NaN)).toBe('');
+    expect(rowsToCsv([[null, undefined, NaN, 1]])).toBe(',,,1\r\n');
   });
 
   it('strips float noise but keeps real precision', () => {
-    expect(formatCsvNumber(0.874 * 100)).toBe('87.4');
-    expect(formatCsvNumber(656.2812345)).toBe('656.2812345');
-    expect(formatCsvNumber(-0)).toBe('0');
+    expect(rowsToCsv([[0.874 * 100, 656.2812345, -0]])).toBe('87.4,656.2812345,0\r\n');
   });
 
   it('ends rows with CRLF', () => {

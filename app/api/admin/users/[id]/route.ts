@@ -5,13 +5,13 @@ import { roleChangeSchema } from '@/lib/schemas/account';
 import { db } from '@/db/models';
 import { audit } from '@/lib/audit';
 import { revokeAllSessions } from '@/lib/auth/sessions';
+import { parseUuid } from '@/lib/http/ids';
 
 export const PATCH = withErrors(async (req: Request, ctx: { params: Promise<{ id: string }> }) => {
   const admin = await requireRole('admin', req);
-  const { id } = await ctx.params;
+  const id = parseUuid((await ctx.params).id, 'user');
   const change = roleChangeSchema.parse(await readJson(req));
   const { User, sequelize } = db();
-  if (!/^[0-9a-f-]{36}$/i.test(id)) throw notFound('No such user.');
   if (id === admin.id && (change.disabled || (change.role && change.role !== 'admin'))) {
     throw conflict('You cannot demote or disable your own account; ask another admin.');
   }

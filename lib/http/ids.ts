@@ -1,0 +1,30 @@
+/**
+ * Ids in paths, read strictly: a row id is 1–10 decimal digits, nothing else
+ * (no "0x10", "1e3", " 7", "+7" or "7.0", which Number() would accept), from 1
+ * to 2^31−1, the range of a PostgreSQL integer; a user id is a UUID. Anything
+ * else answers 404 like a missing row, before the database is asked.
+ */
+
+import { notFound } from './errors';
+
+const MAX_INT4 = 2_147_483_647;
+
+export function parseId(raw: string, what = 'item'): number {
+  const ok = typeof raw === 'string' && raw.length >= 1 && raw.length <= 10 && [...raw].every((c) => c >= '0' && c <= '9');
+  const id = ok ? Number(raw) : NaN;
+  if (!(id >= 1 && id <= MAX_INT4)) throw notFound(`No such ${what}.`);
+  return id;
+}
+
+function isHex(c: string): boolean {
+  return (c >= '0' && c <= '9') || (c >= 'a' && c <= 'f') || (c >= 'A' && c <= 'F');
+}
+
+/** A UUID in its 8-4-4-4-12 hex form (RFC 9562), or a 404. */
+export function parseUuid(raw: string, what = 'item'): string {
+  const ok =
+    typeof raw === 'string' && raw.length === 36 &&
+    [...raw].every((c, i) => ([8, 13, 18, 23].includes(i) ? c === '-' : isHex(c)));
+  if (!ok) throw notFound(`No such ${what}.`);
+  return raw.toLowerCase();
+}
