@@ -264,9 +264,14 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
   // ---------------------------------------------------------------- account
   {
     method: 'post', path: '/api/account/register', tag: 'Account', access: 'public',
-    summary: 'Create an account; a confirmation mail follows',
+    summary: 'Create an account; a mail follows (a confirmation link, or to an existing account\'s owner a note that someone tried)',
     body: { schema: registerSchema },
-    responses: { 201: { description: 'Registered.', schema: r.registered }, 400: err('Malformed JSON.'), 409: err('The e-mail address is taken.'), ...invalid, 429: err('Too many sign-ups from this address.') },
+    responses: { 202: { description: 'Accepted: the same answer whether or not the address already has an account.', schema: r.registered }, 400: err('Malformed JSON.'), ...invalid, 429: err('Too many sign-ups from this address.') },
+  },
+  {
+    method: 'delete', path: '/api/account/sessions', tag: 'Account', access: 'contributor',
+    summary: 'Sign out everywhere: end every session of your account, this one included',
+    responses: { 200: { description: 'How many sessions ended.', schema: r.sessionsEnded }, ...signedIn },
   },
   {
     method: 'post', path: '/api/account/reset', tag: 'Account', access: 'public',

@@ -135,7 +135,8 @@ export const tokenList = z.object({
 });
 
 export const flag = (name: string) => z.object({ [name]: z.literal(true) });
-export const registered = z.object({ id: z.string(), email: z.string(), confirmationSent: z.literal(true) });
+export const registered = z.object({ email: z.string(), confirmationSent: z.literal(true) });
+export const sessionsEnded = z.object({ sessionsEnded: z.number().int() });
 export const userChanged = z.looseObject({ id: z.string(), role: z.string() });
 export const csrf = z.object({ csrfToken: z.string() });
 export const session = z.looseObject({});

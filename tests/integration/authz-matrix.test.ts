@@ -25,7 +25,8 @@ type Who = (typeof WHO)[number];
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE' | 'HEAD' | 'OPTIONS';
 type Statuses = Record<Who, number>;
 type Req = { path: string; body?: unknown; form?: FormData };
-type Case = { what: string; request: (who: Who) => Promise<Req> | Req; expect: Statuses };
+/** `caller`, when given, sends the request instead of the shared clients (for calls that would end their sessions). */
+type Case = { what: string; request: (who: Who) => Promise<Req> | Req; expect: Statuses; caller?: (who: Who) => Promise<Client> };
 
 /** Statuses in the order visitor, contributor (the owner), another contributor, moderator, admin, the owner's API token. */
 const S = (visitor: number, contributor: number, other: number, moderator: number, admin: number, token: number): Statuses =>
@@ -63,6 +64,19 @@ async function ownerToken() {
   return json<{ id: number; token: string }>(res);
 }
 
+/** A caller of the same standing as the shared one, but with an account of its own to sign out everywhere. */
+async function freshCaller(who: Who): Promise<Client> {
+  if (who === 'visitor') return anonymous();
+  const role = who === 'moderator' || who === 'admin' ? who : 'contributor';
+  const user = await makeUser(role);
+  const client = await signIn(user.email, user.password);
+  if (who !== 'token') return client;
+  const res = await sendJson(client, 'POST', '/api/tokens', { name: 'matrix' });
+  const { token } = await json<{ token: string }>(res);
+  const base = anonymous();
+  return { cookie: '', fetch: (p, init = {}) => base.fetch(p, { ...init, headers: { ...Object.fromEntries(new Headers(init.headers)), authorization: `Bearer ${token}` } }) };
+}
+
 async function changesRequested() {
   const s = await ownerSubmission();
   const res = await sendJson(moderator2, 'POST', `/api/submissions/${s.id}/review`, { decision: 'request_changes', note: 'remeasure' });
@@ -76,7 +90,11 @@ const points = { wavelengthNm: [650, 652, 654, 656, 658, 660, 662], transmission
 
 const MATRIX: Record<string, Partial<Record<Method, Case[]>>> = {
   'account/register': {
-    POST: [{ what: 'sign-up with a new address', request: () => ({ path: '/api/account/register', body: { email: `m-${randomUUID().slice(0, 8)}@bandcone.test`, name: 'Matrix', password: 'a long enough password' } }), expect: ALL(201) }],
+    // Accepted for anyone, whether or not the address has an account (the answer never tells).
+    POST: [{ what: 'sign-up with a new address', request: () => ({ path: '/api/account/register', body: { email: `m-${randomUUID().slice(0, 8)}@bandcone.test`, name: 'Matrix', password: 'a long enough password' } }), expect: ALL(202) }],
+  },
+  'account/sessions': {
+    DELETE: [{ what: 'sign out everywhere', request: () => ({ path: '/api/account/sessions' }), expect: S(401, 200, 200, 200, 200, 200), caller: freshCaller }],
   },
   'account/reset': {
     POST: [{ what: 'ask for a reset link', request: () => ({ path: '/api/account/reset', body: { email: 'nobody@bandcone.test' } }), expect: ALL(202) }],
@@ -137,6 +155,9 @@ const MATRIX: Record<string, Partial<Record<Method, Case[]>>> = {
   },
   'model/neff': {
     POST: [{ what: 'fit from CWLs', request: () => ({ path: '/api/model/neff', body: { measurements: [{ aoiDeg: 0, cwlNm: 656.3 }, { aoiDeg: 10, cwlNm: 655.3 }] } }), expect: ALL(200) }],
+  },
+  'openapi.json': {
+    GET: [{ what: 'the API description', request: () => ({ path: '/api/openapi.json' }), expect: ALL(200) }],
   },
   'optics': {
     GET: [{ what: 'list optics', request: () => ({ path: '/api/optics' }), expect: ALL(200) }],
@@ -254,7 +275,7 @@ describe.each(cases)('$method /api/$route: $c.what', ({ method, c }) => {
       headers['content-type'] = 'application/json';
       body = JSON.stringify(req.body);
     }
-    const res = await clients[who].fetch(req.path, { method, headers, body });
+    const res = await (c.caller ? await c.caller(who) : clients[who]).fetch(req.path, { method, headers, body });
     const text = await res.text();
     expect({ who, status: res.status }, text.slice(0, 300)).toEqual({ who, status: c.expect[who] });
   });

@@ -5,8 +5,8 @@ import { readDocument, type FieldRow, type ReadOperation } from '@/lib/openapi/r
 
 export const metadata: Metadata = { title: 'API reference' };
 
-// The document is built from the registry once; the page is the same for everyone.
-export const dynamic = 'force-static';
+// Drawn per request like every page: its scripts need the request's CSP nonce (proxy.ts).
+// The document itself is built once per process (lib/openapi/document.ts).
 
 const METHOD_STYLE: Record<string, string> = {
   get: 'border-ok text-ok',
