@@ -67,7 +67,8 @@ BEGIN
   IF EXISTS (SELECT 1 FROM pg_roles WHERE rolname = 'bandcone_app') THEN
     GRANT USAGE ON SCHEMA ${PGBOSS_SCHEMA} TO bandcone_app;
     GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA ${PGBOSS_SCHEMA} TO bandcone_app;
-    GRANT SELECT, INSERT, UPDATE ON outgoing_mail, user_sessions TO bandcone_app;
+    GRANT SELECT, INSERT, UPDATE ON outgoing_mail TO bandcone_app;
+    GRANT SELECT, INSERT, UPDATE, DELETE ON user_sessions TO bandcone_app;
     GRANT USAGE, SELECT ON SEQUENCE outgoing_mail_id_seq TO bandcone_app;
   END IF;
 END

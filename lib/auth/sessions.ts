@@ -63,3 +63,10 @@ export async function countLiveSessions(userId: string): Promise<number> {
   );
   return Number(row?.n ?? 0);
 }
+
+/** Drops sessions ended or expired more than 30 days ago. */
+export async function pruneSessions(): Promise<void> {
+  await getSequelize().query(
+    `DELETE FROM user_sessions WHERE expires_at < now() - interval '30 days' OR revoked_at < now() - interval '30 days'`,
+  );
+}

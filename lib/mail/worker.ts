@@ -2,6 +2,7 @@ import { QueryTypes } from 'sequelize';
 import { getSequelize } from '@/db/connection';
 import { isPermanentSmtpFailure, sendMail } from './send';
 import { MAIL_QUEUE, REGISTER_QUEUE, RESET_QUEUE, boss, rememberWorker, wakeWorker } from './queue';
+import { pruneSessions } from '@/lib/auth/sessions';
 import { prepareRegistration, prepareResetMail, type RegistrationRequest } from '@/lib/account/flows';
 
 type Claimed = { recipients: string[]; subject: string; text_body: string | null; attempts: number; max_attempts: number };
@@ -26,9 +27,13 @@ export async function deliver(mailId: number): Promise<'sent' | 'skipped' | 'fai
   } catch (err) {
     const permanent = isPermanentSmtpFailure(err);
     const final = permanent || row.attempts >= row.max_attempts;
-    await sequelize.query(`UPDATE outgoing_mail SET state = :state, last_error = :error WHERE id = :mailId`, {
-      replacements: { mailId, state: final ? 'failed' : 'queued', error: String((err as Error).message ?? err).slice(0, 500) },
-    });
+    // A one-time link that will never be delivered is dropped too.
+    await sequelize.query(
+      `UPDATE outgoing_mail SET state = :state, last_error = :error,
+         text_body = CASE WHEN :final AND sensitive THEN NULL ELSE text_body END
+       WHERE id = :mailId`,
+      { replacements: { mailId, final, state: final ? 'failed' : 'queued', error: String((err as Error).message ?? err).slice(0, 500) } },
+    );
     if (permanent) return 'failed';
     throw err;
   }
@@ -73,6 +78,8 @@ export function startMailWorker(): Promise<void> {
     rememberWorker(MAIL_QUEUE, await handle<{ mailId: number }>(MAIL_QUEUE, (d) => deliver(Number(d.mailId))));
     rememberWorker(RESET_QUEUE, await handle<{ email: string }>(RESET_QUEUE, (d) => prepareResetMail(d.email)));
     rememberWorker(REGISTER_QUEUE, await handle<RegistrationRequest>(REGISTER_QUEUE, prepareRegistration));
+    // Ended sessions are kept a while for the record, then dropped.
+    setInterval(() => void pruneSessions().catch(() => undefined), 3600_000).unref();
   })();
   return starting;
 }
