@@ -218,11 +218,12 @@ async function main() {
   const args = parseArgs(process.argv.slice(2));
   const rand = rng(args.seed);
   const origin = new URL(args.url).origin;
-  const cookie = await signIn(args.url, args.email, args.password).catch(() => null);
-  if (!cookie) console.log(`(could not sign in as ${args.email}: the submission route is sent to signed out, so it answers 401)`);
-
   const files = fileCases(rand, 1100);
   const bodies = jsonCases(rand, 1000);
+  // After the corpus is built: a connection idle past the server's keep-alive timeout while
+  // it was being generated would be closed under the first request.
+  const cookie = await signIn(args.url, args.email, args.password).catch(() => null);
+  if (!cookie) console.log(`(could not sign in as ${args.email}: the submission route is sent to signed out, so it answers 401)`);
   type Job = { route: string; kind: string; init: () => RequestInit };
   const jobs: Job[] = [];
   files.forEach((f, i) => {
@@ -274,14 +275,16 @@ async function main() {
     while (next < jobs.length) {
       const job = jobs[next++];
       const t0 = performance.now();
+      const init = job.init();
+      const size = typeof init.body === 'string' ? init.body.length : init.body instanceof FormData ? -1 : 0;
       try {
-        const res = await fetch(args.url + job.route, { ...job.init(), redirect: 'manual' });
+        const res = await fetch(args.url + job.route, { ...init, redirect: 'manual' });
         const text = await res.text();
         const shot: Shot = { route: job.route, kind: job.kind, status: res.status, ms: performance.now() - t0 };
         if (res.status >= 500) shot.note = text.slice(0, 200);
         shots.push(shot);
       } catch (err) {
-        shots.push({ route: job.route, kind: job.kind, status: 0, ms: performance.now() - t0, note: String((err as Error).cause ?? err) });
+        shots.push({ route: job.route, kind: job.kind, status: 0, ms: performance.now() - t0, note: `${String((err as Error).cause ?? err)} (job ${next - 1}${size > 0 ? `, ${size} characters` : ''})` });
       }
       if (shots.length % 250 === 0) process.stdout.write(`  ${shots.length}/${jobs.length} sent\n`);
     }
