@@ -16,6 +16,7 @@ import { StudyCautions } from './cautions';
 import { ComparisonTable } from './comparison-table';
 import { StudyCharts } from './study-charts';
 import { SensorMap } from './sensor-map';
+import { SkyPanel } from './sky-panel';
 import { StudyInputs, type OpticOption } from './study-inputs';
 import { useStudyCompute } from './use-study-compute';
 import { VerdictCard } from './verdict-card';
@@ -245,6 +246,7 @@ export function StudyWorkbench(props: StudyWorkbenchProps) {
             <StudyCharts results={results} settings={computedFor} studies={studies} />
           </div>
           {studies.length ? <SensorMap studies={studies} settings={computedFor} /> : null}
+          {studies.length ? <SkyPanel studies={studies} settings={computedFor} /> : null}
         </div>
       </div>
     </div>
