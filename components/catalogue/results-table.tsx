@@ -133,6 +133,19 @@ export function ResultsTable(props: {
     );
   }
 
+  if (props.items.some((i) => i.skyGain !== undefined)) {
+    columns.push({
+      id: 'contrast',
+      header: () => <abbr title="Background-limited contrast gain over an ideal 10 nm box under the chosen sky">Contrast</abbr>,
+      cell: ({ row }) => (
+        <span data-testid="sky-gain" data-raw={row.original.skyGain ?? ''}>
+          {row.original.skyGain == null ? '—' : `× ${row.original.skyGain.toFixed(2)}`}
+        </span>
+      ),
+      meta: { numeric: true } satisfies Meta,
+    });
+  }
+
   const table = useReactTable({ data: props.items, columns, getCoreRowModel: getCoreRowModel(), manualSorting: true, manualPagination: true });
 
   return (
