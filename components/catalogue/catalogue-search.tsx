@@ -235,7 +235,26 @@ export function CatalogueSearch(props: {
             <EmptyState query={query} data={data} onChange={change} hrefFor={hrefFor} />
           ) : data ? (
             <>
-              <ResultsTable items={data.items} sort={sort} dir={dir} fitness={fitness} targetLine={query.line} onSort={onSort} busy={isValidating} />
+              <ResultsTable
+                items={data.items}
+                sort={sort}
+                dir={dir}
+                fitness={fitness}
+                targetLine={query.line}
+                onSort={onSort}
+                busy={isValidating}
+                odds={
+                  data.fitness
+                    ? {
+                        fNumber: data.fitness.fNumber,
+                        obstruction: data.fitness.obstruction,
+                        ...(data.fitness.nEff !== null ? { nEff: data.fitness.nEff } : {}),
+                        fieldAngleDeg: data.fitness.fieldAngleDeg,
+                        minThroughput: query.minThroughput ? Number(query.minThroughput) : 0.8,
+                      }
+                    : undefined
+                }
+              />
               <nav aria-label="Pages" className="flex flex-wrap items-center gap-3 text-sm">
                 <span className="text-muted">
                   Rows {((page - 1) * pageSize + 1).toLocaleString('en-US')}–{Math.min(total, page * pageSize).toLocaleString('en-US')} of {total.toLocaleString('en-US')}

@@ -1,5 +1,6 @@
 'use client';
 
+import { OddsCell, oddsUrl } from './unit-odds';
 import Link from 'next/link';
 import { useRouter } from 'next/navigation';
 import { flexRender, getCoreRowModel, useReactTable, type ColumnDef } from '@tanstack/react-table';
@@ -34,6 +35,8 @@ export function ResultsTable(props: {
   targetLine?: string;
   onSort: (s: SortKey) => void;
   busy: boolean;
+  /** The optic of the fitness filter, for the odds column (GET /api/labels/odds). */
+  odds?: { fNumber: number; obstruction: number; nEff?: number; fieldAngleDeg?: number; minThroughput: number };
 }) {
   const router = useRouter();
   const board = useCompareBoard();
@@ -133,6 +136,22 @@ export function ResultsTable(props: {
     );
   }
 
+  if (props.odds) {
+    const o = props.odds;
+    columns.push({
+      id: 'odds',
+      header: () => (
+        <abbr title={`Units of the same label that keep at least ${Math.round(o.minThroughput * 100)} % of the line on this optic: counted, and from a fitted spread`}>
+          Units ≥ {Math.round(o.minThroughput * 100)} %
+        </abbr>
+      ),
+      cell: ({ row }) => {
+        const line = props.targetLine ?? row.original.lines[0];
+        return line ? <OddsCell url={oddsUrl({ label: row.original.label, line, ...o })} /> : '—';
+      },
+      meta: { numeric: true } satisfies Meta,
+    });
+  }
   if (props.items.some((i) => i.skyGain !== undefined)) {
     columns.push({
       id: 'contrast',
