@@ -1,5 +1,5 @@
 /**
- * The light cone an optic sends through the filter (MODEL.md §5), reduced to
+ * The light cone an optic sends through the filter (docs/model.md §5), reduced to
  * what the model needs: how the pupil's light is distributed over incidence
  * angle. Both ray mappings place a pupil point at angle α from the chief ray
  * (tan α = ρ/2N or sin α = ρ/2N) and at azimuth ψ around it, so the pupil is a

@@ -65,7 +65,7 @@ export interface AngleBin {
   weight: number;
 }
 
-/** How the design passband is moved before the cone acts on it (MODEL.md §3–4). */
+/** How the design passband is moved before the cone acts on it (docs/model.md §3–4). */
 export interface ShiftParams {
   nEff: number;
   measuredAoiDeg?: number;
