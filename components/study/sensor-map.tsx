@@ -118,7 +118,7 @@ export function SensorMap({ studies, settings }: { studies: CurveStudy[]; settin
           </select>
         </Field>
         {mode === 'exitPupil' ? (
-          <Field id="sm-pupil" label="Exit pupil to sensor" suffix="mm">
+          <Field id="sm-pupil" label="Exit-pupil distance" suffix="mm">
             <input id="sm-pupil" className={inputClass} inputMode="decimal" value={exitPupilMm} onChange={(e) => setExitPupil(e.target.value)} />
           </Field>
         ) : (
