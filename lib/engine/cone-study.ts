@@ -54,7 +54,8 @@ function validate(input: ConeModelInput): void {
   }
   if (z !== undefined && v !== undefined) details.push({ field: 'z', message: 'give either z or radialVelocityKms, not both' });
   for (const [id, w] of Object.entries(input.lineWeights ?? {})) {
-    if (!(typeof w === 'number' && Number.isFinite(w) && w >= 0)) details.push({ field: `lineWeights.${id}`, message: 'a line weight must be a number of at least 0' });
+    if (id !== CUSTOM_LINE_ID && !findLine(id)) details.push({ field: `lineWeights.${id}`, message: `"${id}" is not a line id (${LINES.map((l) => l.id).join(', ')}, or "${CUSTOM_LINE_ID}" for lineNm)` });
+    else if (!(typeof w === 'number' && Number.isFinite(w) && w >= 0)) details.push({ field: `lineWeights.${id}`, message: 'a line weight must be a number of at least 0' });
   }
   if (details.length > 0) {
     const unknown = details.find((d) => d.field === 'lines');

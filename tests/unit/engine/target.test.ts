@@ -28,6 +28,16 @@ describe('target: redshift, doublets and weighted totals', () => {
     }
   });
 
+  it('refuses a weight for an unknown line, naming it', () => {
+    const pts = flatTop(657.5, 6, 0.3);
+    try {
+      runConeModel({ points: pts, optic, nEff: 2, lines: ['Ha'], lineWeights: { Hz: 2 } });
+      throw new Error('accepted');
+    } catch (e) {
+      expect((e as { details: { field: string }[] }).details.map((d) => d.field)).toContain('lineWeights.Hz');
+    }
+  });
+
   it('doublet ratios are the Storey & Zeippen (2000, MNRAS 312, 813) values, from memory', () => {
     expect(DOUBLETS.find((d) => d.primary === 'OIII')!.ratio).toBeCloseTo(2.98, 2);
     expect(DOUBLETS.find((d) => d.primary === 'NII-658')!.ratio).toBeCloseTo(2.94, 2);
