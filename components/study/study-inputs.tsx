@@ -186,7 +186,6 @@ export function StudyInputs(p: StudyInputsProps) {
           <p className="text-xs text-bad">{err.line}</p>
         ) : null}
         <TargetPicker velocity={query.v} onVelocity={(v) => setField('v', v)} />
-        <TargetPicker velocity={query.v} onVelocity={(v) => setField('v', v)} />
         <StudyField
           id="study-v"
           label="Source radial velocity"
