@@ -53,6 +53,8 @@ describe('the study page: whole sensor, sky and target', () => {
         await expect.poll(() => page.locator('#study-v').inputValue()).toBe(String(Math.round(0.001544 * SPEED_OF_LIGHT_KMS * 10) / 10));
       }
       await screenshot(page, `study-sky-sensor-${width}`);
+      await map.screenshot({ path: `.data/screenshots/sensor-map-${width}.png` });
+      await sky.screenshot({ path: `.data/screenshots/sky-panel-${width}.png` });
       // nothing spills sideways at 390 px
       const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
       expect(overflow).toBeLessThanOrEqual(1);
