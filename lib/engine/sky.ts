@@ -165,6 +165,7 @@ export function skyLeakage(c: PreparedCurve, pupil: Pupil, params: ShiftParams, 
   const warnings: string[] = [];
   const continuumNm = acceptedContinuumNm(c, pupil, params);
   let background = model.continuum * continuumNm;
+  const missed: string[] = [];
   const lines = SKY_LINES.map((l): SkyLineResult => {
     const r = lineThroughput(c, pupil, l.airNm, params);
     const isTarget = Math.abs(l.airNm - targetNm) <= SAME_LINE_NM;
@@ -172,10 +173,14 @@ export function skyLeakage(c: PreparedCurve, pupil: Pupil, params: ShiftParams, 
     if (isTarget) {
       warnings.push(`The target line is itself the sky line ${l.name} nm; it is counted as signal, not as background.`);
     } else if (!r.covered) {
-      if (strength > 0) warnings.push(`The curve's measured range does not reach ${l.name} nm, so its leakage is unknown and left out of the background.`);
+      if (strength > 0) missed.push(l.name);
     } else background += strength * r.throughput;
     return { id: l.id, wavelengthNm: l.airNm, throughput: r.covered ? r.throughput : null, covered: r.covered, isTarget };
   });
+  if (missed.length > 0) {
+    const one = missed.length === 1;
+    warnings.push(`The curve's measured range does not reach ${missed.join(', ')} nm, so ${one ? 'its' : 'their'} leakage is unknown and left out of the background.`);
+  }
   return { lines, continuumNm, background, warnings };
 }
 
