@@ -75,4 +75,21 @@ describe('the study page: whole sensor, sky and target', () => {
     await screenshot(page, 'curve-odds-night');
     await context.close();
   }, 60_000);
+
+  it('the catalogue sorts by contrast under a chosen sky and shows the odds column for the optic', async () => {
+    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+    const page = await context.newPage();
+    await page.goto(`${BASE}/curves?line=Ha&fNumber=2.5&obstruction=0.36&sort=contrast&sky=dark`);
+    await expect.poll(() => page.getByTestId('contrast-note').count(), { timeout: 30_000 }).toBe(1);
+    await expect(page.getByTestId('contrast-note').textContent()).resolves.toMatch(/computed exactly/);
+    const gains = await page.getByTestId('sky-gain').evaluateAll((els) => els.map((e) => Number(e.getAttribute('data-raw'))));
+    expect(gains.length).toBeGreaterThan(1);
+    expect([...gains].sort((a, b) => b - a)).toEqual(gains);
+    await expect.poll(() => page.locator('[data-testid="odds-cell"]').count(), { timeout: 30_000 }).toBeGreaterThan(0);
+    await expect
+      .poll(async () => (await page.locator('[data-testid="odds-cell"]').allTextContents()).some((t) => /^\d+\/\d+/.test(t)), { timeout: 30_000 })
+      .toBe(true);
+    await screenshot(page, 'catalogue-contrast');
+    await context.close();
+  }, 60_000);
 });
