@@ -145,7 +145,8 @@ export function unitOdds(input: OddsInput): OddsResult {
     return out[0];
   });
   const meeting = throughputs.filter((t) => t >= minThroughput).length;
-  const distribution = 'CWL and FWHM as independent normal distributions, fitted by the sample mean and standard deviation of the measured units';
+  const distribution =
+    'CWL and FWHM as independent normal distributions, fitted by the sample mean and standard deviation of the measured units; each drawn unit has the shape and effective index of the unit nearest the means';
   const base = { units: units.length, meeting, throughputs, cwlSpreadNm: spread.cwl, fwhmSpreadNm: spread.fwhm, distribution };
   if (units.length < MIN_UNITS) {
     return {
