@@ -10,7 +10,7 @@ import { ResultsTable } from './results-table';
 import { EmptyState } from './empty-state';
 import { CompareTray } from './compare-tray';
 import { SolarCaution, ModelCaution } from './solar-caution';
-import { SORT_NAMES, lineName, INSTRUMENT_NAMES } from './labels';
+import { SORT_NAMES, SKY_NAMES, lineName, INSTRUMENT_NAMES } from './labels';
 import type { OpticChoice, Query, SearchResponse } from './types';
 
 type Patch = Record<string, string | undefined>;
@@ -199,13 +199,25 @@ export function CatalogueSearch(props: {
             <label className="flex items-center gap-2">
               <span className="text-muted">Sort</span>
               <select value={sort} onChange={(e) => change({ sort: e.target.value, dir: undefined })} className="rounded-card border border-rule bg-panel px-2 py-1" aria-label="Sort by">
-                {SORTS.filter((s) => (s === 'throughput' ? fitness : s === 'relevance' ? !!query.q : true)).map((s) => (
+                {SORTS.filter((s) => (s === 'throughput' || s === 'contrast' ? fitness : s === 'relevance' ? !!query.q : true)).map((s) => (
                   <option key={s} value={s}>
                     {SORT_NAMES[s]}
                   </option>
                 ))}
               </select>
             </label>
+            {sort === 'contrast' ? (
+              <label className="flex items-center gap-2">
+                <span className="text-muted">Sky</span>
+                <select value={query.sky ?? 'suburban'} onChange={(e) => change({ sky: e.target.value })} className="rounded-card border border-rule bg-panel px-2 py-1" aria-label="Sky for the contrast sort" data-testid="contrast-sky">
+                  {Object.entries(SKY_NAMES).map(([id, name]) => (
+                    <option key={id} value={id}>
+                      {name}
+                    </option>
+                  ))}
+                </select>
+              </label>
+            ) : null}
             <span className="ml-auto flex gap-3 text-sm">
               <span className="text-muted">Download these verified curves:</span>
               <a href={`/api/curves/export.csv${exportQuery ? `?${exportQuery}` : ''}`} className="text-accent underline-offset-4 hover:underline" data-testid="export-csv">CSV</a>
@@ -223,7 +235,26 @@ export function CatalogueSearch(props: {
             <EmptyState query={query} data={data} onChange={change} hrefFor={hrefFor} />
           ) : data ? (
             <>
-              <ResultsTable items={data.items} sort={sort} dir={dir} fitness={fitness} targetLine={query.line} onSort={onSort} busy={isValidating} />
+              <ResultsTable
+                items={data.items}
+                sort={sort}
+                dir={dir}
+                fitness={fitness}
+                targetLine={query.line}
+                onSort={onSort}
+                busy={isValidating}
+                odds={
+                  data.fitness
+                    ? {
+                        fNumber: data.fitness.fNumber,
+                        obstruction: data.fitness.obstruction,
+                        ...(data.fitness.nEff !== null ? { nEff: data.fitness.nEff } : {}),
+                        fieldAngleDeg: data.fitness.fieldAngleDeg,
+                        minThroughput: query.minThroughput ? Number(query.minThroughput) : 0.8,
+                      }
+                    : undefined
+                }
+              />
               <nav aria-label="Pages" className="flex flex-wrap items-center gap-3 text-sm">
                 <span className="text-muted">
                   Rows {((page - 1) * pageSize + 1).toLocaleString('en-US')}–{Math.min(total, page * pageSize).toLocaleString('en-US')} of {total.toLocaleString('en-US')}
@@ -253,6 +284,12 @@ export function CatalogueSearch(props: {
             <p className="text-xs text-muted">
               Line throughput and the speed-equivalent f-number are computed exactly for the rows shown; the filter and the throughput sort read a stored grid
               (see the catalogue notes for its measured accuracy).
+            </p>
+          ) : null}
+          {data?.contrast ? (
+            <p className="text-xs text-muted" data-testid="contrast-note">
+              Contrast: the background-limited gain (τ/τ_ref)/√(B/B_ref) over an ideal {data.contrast.referenceBoxNm} nm box at the same line, under the
+              illustrative “{SKY_NAMES[data.contrast.sky] ?? data.contrast.sky}” sky. {data.contrast.note}
             </p>
           ) : null}
           {fitness ? <ModelCaution /> : null}

@@ -23,6 +23,14 @@ export const SORT_NAMES: Record<string, string> = {
   fwhm: 'FWHM',
   peak: 'Peak T',
   throughput: 'Line throughput',
+  contrast: 'Best contrast on this optic',
+};
+
+/** The contrast sort's sky models, as the catalogue names them (lib/engine/sky.ts SKY_MODELS). */
+export const SKY_NAMES: Record<string, string> = {
+  dark: 'Dark site',
+  suburban: 'Suburban (Hg + Na)',
+  'led-town': 'LED-lit town',
 };
 
 /** "3-5" → "3–5 nm", "30+" → "30 nm and wider". */

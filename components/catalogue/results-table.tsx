@@ -1,5 +1,6 @@
 'use client';
 
+import { OddsCell, oddsUrl } from './unit-odds';
 import Link from 'next/link';
 import { useRouter } from 'next/navigation';
 import { flexRender, getCoreRowModel, useReactTable, type ColumnDef } from '@tanstack/react-table';
@@ -34,6 +35,8 @@ export function ResultsTable(props: {
   targetLine?: string;
   onSort: (s: SortKey) => void;
   busy: boolean;
+  /** The optic of the fitness filter, for the odds column (GET /api/labels/odds). */
+  odds?: { fNumber: number; obstruction: number; nEff?: number; fieldAngleDeg?: number; minThroughput: number };
 }) {
   const router = useRouter();
   const board = useCompareBoard();
@@ -131,6 +134,35 @@ export function ResultsTable(props: {
         meta: { numeric: true } satisfies Meta,
       },
     );
+  }
+
+  if (props.odds) {
+    const o = props.odds;
+    columns.push({
+      id: 'odds',
+      header: () => (
+        <abbr title={`Units of the same label that keep at least ${Math.round(o.minThroughput * 100)} % of the line on this optic: counted, and from a fitted spread`}>
+          Units ≥ {Math.round(o.minThroughput * 100)} %
+        </abbr>
+      ),
+      cell: ({ row }) => {
+        const line = props.targetLine ?? row.original.lines[0];
+        return line ? <OddsCell url={oddsUrl({ label: row.original.label, line, ...o })} /> : '—';
+      },
+      meta: { numeric: true } satisfies Meta,
+    });
+  }
+  if (props.items.some((i) => i.skyGain !== undefined)) {
+    columns.push({
+      id: 'contrast',
+      header: () => <abbr title="Background-limited contrast gain over an ideal 10 nm box under the chosen sky">Contrast</abbr>,
+      cell: ({ row }) => (
+        <span data-testid="sky-gain" data-raw={row.original.skyGain ?? ''}>
+          {row.original.skyGain == null ? '—' : `× ${row.original.skyGain.toFixed(2)}`}
+        </span>
+      ),
+      meta: { numeric: true } satisfies Meta,
+    });
   }
 
   const table = useReactTable({ data: props.items, columns, getCoreRowModel: getCoreRowModel(), manualSorting: true, manualPagination: true });

@@ -1,6 +1,7 @@
 'use client';
 
 import Link from 'next/link';
+import { TargetPicker } from './target-picker';
 import { formatFNumber, formatRatio, formatSignedNm, fixed } from '@/components/charts/format';
 import { findLine, LINES } from '@/lib/engine/lines';
 import type { StudyOutcome } from '@/lib/study/compute';
@@ -184,6 +185,7 @@ export function StudyInputs(p: StudyInputsProps) {
         ) : err.line ? (
           <p className="text-xs text-bad">{err.line}</p>
         ) : null}
+        <TargetPicker velocity={query.v} onVelocity={(v) => setField('v', v)} />
         <StudyField
           id="study-v"
           label="Source radial velocity"

@@ -15,6 +15,8 @@ import { fallbackLineFor, resolveSettings, studySearch, type QueryField, type St
 import { StudyCautions } from './cautions';
 import { ComparisonTable } from './comparison-table';
 import { StudyCharts } from './study-charts';
+import { SensorMap } from './sensor-map';
+import { SkyPanel } from './sky-panel';
 import { StudyInputs, type OpticOption } from './study-inputs';
 import { useStudyCompute } from './use-study-compute';
 import { VerdictCard } from './verdict-card';
@@ -243,6 +245,8 @@ export function StudyWorkbench(props: StudyWorkbenchProps) {
           <div className={`transition-opacity ${stale ? 'opacity-70' : ''}`}>
             <StudyCharts results={results} settings={computedFor} studies={studies} />
           </div>
+          {studies.length ? <SensorMap studies={studies} settings={computedFor} /> : null}
+          {studies.length ? <SkyPanel studies={studies} settings={computedFor} /> : null}
         </div>
       </div>
     </div>

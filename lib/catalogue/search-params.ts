@@ -7,7 +7,9 @@
 import { z } from '@/lib/schemas/zod';
 import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
 
-export const SORTS = ['relevance', 'cwl', 'fwhm', 'peak', 'throughput', 'newest'] as const;
+export const SORTS = ['relevance', 'cwl', 'fwhm', 'peak', 'throughput', 'newest', 'contrast'] as const;
+/** Sky models the contrast sort accepts (lib/engine/sky.ts). */
+export const SKY_MODEL_IDS = ['dark', 'suburban', 'led-town'] as const;
 export type Sort = (typeof SORTS)[number];
 export const STATUS_FILTERS = ['verified', 'submitted', 'changes_requested', 'rejected', 'superseded', 'any'] as const;
 export const MAX_PAGE_SIZE = 100;
@@ -15,7 +17,7 @@ export const DEFAULT_PAGE_SIZE = 20;
 
 /** Natural direction of each sort: best or most useful first. */
 export const DEFAULT_DIR: Record<Sort, 'asc' | 'desc'> = {
-  relevance: 'desc', cwl: 'asc', fwhm: 'asc', peak: 'desc', throughput: 'desc', newest: 'desc',
+  relevance: 'desc', cwl: 'asc', fwhm: 'asc', peak: 'desc', throughput: 'desc', newest: 'desc', contrast: 'desc',
 };
 
 // Query strings carry text: an empty value means "not set", anything else must read as a number.
@@ -55,6 +57,7 @@ export const searchParamsSchema = z
     fieldAngleDeg: num('fieldAngleDeg', 0, 30, '°'),
     minThroughput: num('minThroughput', 0, 1, ' (a fraction, 0.85 for 85 %)'),
     sort: choice(SORTS, 'sort'),
+    sky: choice(SKY_MODEL_IDS, 'sky'),
     dir: choice(['asc', 'desc'] as const, 'dir'),
     page: z.preprocess(
       (v) => (v === '' || v === undefined ? undefined : Number(v)),
@@ -82,6 +85,7 @@ export const searchParamsSchema = z
         if (p[k] !== undefined) ctx.addIssue({ code: 'custom', path: [k], message: `${k} is part of the fitness filter and needs fNumber too` });
       }
       if (p.sort === 'throughput') ctx.addIssue({ code: 'custom', path: ['sort'], message: 'sorting by throughput needs an optic: give fNumber (and obstruction)' });
+      if (p.sort === 'contrast') ctx.addIssue({ code: 'custom', path: ['sort'], message: 'sorting by contrast needs an optic: give fNumber (and obstruction)' });
     }
     if (p.fNumber !== undefined && p.fieldAngleDeg !== undefined && p.fieldAngleDeg + (Math.atan(1 / (2 * p.fNumber)) * 180) / Math.PI >= 89.9) {
       ctx.addIssue({ code: 'custom', path: ['fieldAngleDeg'], message: 'this field angle and f-number send light in at grazing incidence' });

@@ -20,6 +20,7 @@ import { cachedCounts } from './count-cache';
 import { binaryArraySql, readFloat8Array } from './binary-array';
 import { curvePointsByIds } from './points';
 import { answeredInMemory, searchInMemory, type CountGroup } from './memory-search';
+import { byContrast, contrastOf, CONTRAST_CANDIDATES, CONTRAST_REFERENCE_BOX_NM, DEFAULT_CONTRAST_SKY } from './contrast';
 
 export interface SearchItem {
   id: number;
@@ -36,6 +37,8 @@ export interface SearchItem {
   verifiedAt: string | null;
   throughput?: number;
   speedEquivalentFNumber?: number | null;
+  /** Contrast gain over an ideal 10 nm box under the search's sky (sort=contrast only). */
+  skyGain?: number | null;
   snippet?: string;
   sparkline: { wavelengthNm: number[]; transmission: number[] };
 }
@@ -54,6 +57,8 @@ export interface SearchResult {
   dir: 'asc' | 'desc';
   facets: { line: FacetCount[]; method: FacetCount[]; fwhm: FacetCount[] };
   fitness?: { lineId: string | null; fNumber: number; obstruction: number; nEff: number | null; fieldAngleDeg: number; gridLevel: number };
+  /** How the contrast sort was answered (sort=contrast only). */
+  contrast?: { sky: string; referenceBoxNm: number; candidates: number; note: string };
 }
 
 /** Integer arrays (the fine level) come back as text and are split here: several times quicker than the driver's array parser. */
@@ -237,6 +242,8 @@ function orderBy(sort: Sort, dir: 'asc' | 'desc', b: Built): string {
     case 'peak':
       return `c.peak_t ${d}, ${tie}`;
     case 'throughput':
+    // exports of a contrast search keep the throughput order of its candidates (contrast.ts)
+    case 'contrast':
       return `${b.tau} ${d} NULLS LAST, ${tie}`;
     case 'newest':
       return newest;
@@ -352,6 +359,7 @@ export interface SearchOptions {
 }
 
 export async function searchCurves(actor: Actor | null, p: SearchParams, options: SearchOptions = {}): Promise<SearchResult> {
+  if (p.sort === 'contrast' && hasFitness(p)) return searchByContrast(actor, p, options);
   if (options.memory !== false && hasFitness(p) && (await answeredInMemory(actor, p))) {
     const fromCopy = await searchCopy(actor, p);
     if (fromCopy) return fromCopy;
@@ -366,6 +374,40 @@ export async function searchCurves(actor: Actor | null, p: SearchParams, options
       : cachedCounts(`${facetSql}\n${JSON.stringify(facetBind)}`, () => countGroups(facetSql, facetBind)),
   ]);
   return assemble(p, pl, { sort, dir, page, pageSize }, rows, groups);
+}
+
+/**
+ * Sort by contrast (contrast.ts): the CONTRAST_CANDIDATES matches of highest line
+ * throughput, each given its exact contrast gain, ordered and paged. The facets
+ * and total are those of the whole search.
+ */
+async function searchByContrast(actor: Actor | null, p: SearchParams & { fNumber: number }, options: SearchOptions): Promise<SearchResult> {
+  const pageSize = p.pageSize ?? DEFAULT_PAGE_SIZE;
+  const page = p.page ?? 1;
+  const dir = p.dir ?? DEFAULT_DIR.contrast;
+  const pool = await searchCurves(actor, { ...p, sort: 'throughput', dir: 'desc', page: 1, pageSize: CONTRAST_CANDIDATES }, options);
+  const gain = await contrastOf(p, pool.items);
+  const ordered = [...pool.items].sort(byContrast(gain, dir));
+  const items = ordered.slice((page - 1) * pageSize, page * pageSize).map((i) => ({ ...i, skyGain: gain.get(i.id) ?? null }));
+  const sky = p.sky ?? DEFAULT_CONTRAST_SKY;
+  return {
+    ...pool,
+    items,
+    total: Math.min(pool.total, CONTRAST_CANDIDATES),
+    page,
+    pageSize,
+    sort: 'contrast',
+    dir,
+    contrast: {
+      sky,
+      referenceBoxNm: CONTRAST_REFERENCE_BOX_NM,
+      candidates: pool.items.length,
+      note:
+        pool.total > CONTRAST_CANDIDATES
+          ? `Contrast is computed exactly for the ${CONTRAST_CANDIDATES} matches with the highest line throughput (of ${pool.total}); the others are not ranked.`
+          : `Contrast is computed exactly for all ${pool.total} matches.`,
+    },
+  };
 }
 
 /** A fitness search over the verified catalogue, from the in-process copy (memory-search.ts); the page's rows from SQL. */

@@ -9,7 +9,9 @@ import { EngineInputError, type InputDetail } from './errors';
 import { dopplerShift, findLine, LINES, neighboursOf, SPEED_OF_LIGHT_KMS } from './lines';
 import { halfMaximumEdges } from './metrics';
 import { angleHistogram, buildPupil, validateOptic } from './pupil';
-import type { ConeLineResult, ConeModelInput, ConeModelResult, NeighbourResult } from './types';
+import { skyStudy } from './sky';
+import { redshift, weightedLines, weightedTotal } from './target';
+import type { ConeLineResult, ConeModelInput, ConeModelResult, NeighbourResult, TargetTotal } from './types';
 
 /** Id given to a line requested by wavelength rather than from the catalogue. */
 export const CUSTOM_LINE_ID = 'custom';
@@ -45,6 +47,15 @@ function validate(input: ConeModelInput): void {
   const v = input.radialVelocityKms;
   if (v !== undefined && (typeof v !== 'number' || !Number.isFinite(v) || Math.abs(v) > 0.1 * SPEED_OF_LIGHT_KMS)) {
     details.push({ field: 'radialVelocityKms', message: 'the radial velocity must be a number within ±29 979 km/s' });
+  }
+  const z = input.z;
+  if (z !== undefined && (typeof z !== 'number' || !Number.isFinite(z) || z < -0.1 || z > 1)) {
+    details.push({ field: 'z', message: 'the redshift z must be a number from −0.1 to 1' });
+  }
+  if (z !== undefined && v !== undefined) details.push({ field: 'z', message: 'give either z or radialVelocityKms, not both' });
+  for (const [id, w] of Object.entries(input.lineWeights ?? {})) {
+    if (id !== CUSTOM_LINE_ID && !findLine(id)) details.push({ field: `lineWeights.${id}`, message: `"${id}" is not a line id (${LINES.map((l) => l.id).join(', ')}, or "${CUSTOM_LINE_ID}" for lineNm)` });
+    else if (!(typeof w === 'number' && Number.isFinite(w) && w >= 0)) details.push({ field: `lineWeights.${id}`, message: 'a line weight must be a number of at least 0' });
   }
   if (details.length > 0) {
     const unknown = details.find((d) => d.field === 'lines');
@@ -129,8 +140,9 @@ export function runConeModel(input: ConeModelInput): ConeModelResult {
   const v = input.radialVelocityKms ?? 0;
   const N = pupil.optic.fNumber;
 
+  const move = (restNm: number) => (input.z !== undefined ? redshift(restNm, input.z) : dopplerShift(restNm, v));
   const evaluate = (t: Target) => {
-    const wavelengthNm = dopplerShift(t.restNm, v);
+    const wavelengthNm = move(t.restNm);
     const r = lineThroughput(c, pupil, wavelengthNm, params);
     if (!r.covered) {
       warnings.push(`${t.label} at ${wavelengthNm.toFixed(3)} nm: the cone reaches beyond the measured range, where transmission is taken as 0.`);
@@ -179,6 +191,24 @@ export function runConeModel(input: ConeModelInput): ConeModelResult {
     angleHistogram: angleHistogram(pupil, 0.5),
     warnings: [...new Set(warnings)],
   };
+  if (input.z !== undefined || input.doublets || input.lineWeights || targets.length > 1) {
+    result.target = targetTotal(input, targets, evaluate);
+  }
+  if (input.sky) result.sky = skyStudy(c, pupil, params, primary.wavelengthNm, primary.throughput, input.sky, warnings);
+  result.warnings = [...new Set(warnings)];
   if (input.includeCurve) result.coneCurve = { wavelengthNm: cone.wavelengthNm, transmission: cone.transmission };
   return result;
+}
+
+/** Each target line (plus doublet partners when asked) with its weight, and the weighted total. */
+function targetTotal(input: ConeModelInput, targets: Target[], evaluate: (t: Target) => { wavelengthNm: number; throughput: number }): TargetTotal {
+  const restOf = new Map(targets.map((t) => [t.id, t]));
+  const weights = weightedLines(targets.map((t) => t.id), input.lineWeights ?? {}, input.doublets ?? false);
+  const lines = weights.map((w) => {
+    const t = restOf.get(w.id) ?? { id: w.id, label: findLine(w.id)!.name, restNm: findLine(w.id)!.airNm };
+    const r = evaluate(t);
+    return { id: w.id, wavelengthNm: r.wavelengthNm, weight: w.weight, throughput: r.throughput, fromDoublet: w.fromDoublet };
+  });
+  const z = input.z ?? (input.radialVelocityKms ?? 0) / SPEED_OF_LIGHT_KMS;
+  return { z, lines, total: weightedTotal(lines) };
 }

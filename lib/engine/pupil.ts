@@ -170,7 +170,9 @@ function geometryOf(o: Required<Optic>): Geometry {
 }
 
 const pupilCache = new Map<string, Pupil>();
-const PUPIL_CACHE_LIMIT = 64;
+// A field map holds one pupil per profile radius (up to about 160), so the
+// cache keeps a few maps' worth; a pupil is about 7 kB.
+const PUPIL_CACHE_LIMIT = 512;
 
 export function buildPupil(optic: Optic, quadrature: PupilQuadrature = {}): Pupil {
   const o = validateOptic(optic);

@@ -83,6 +83,14 @@ export interface ConeModelInput extends ShiftParams {
   lineNm?: number;
   radialVelocityKms?: number;
   includeCurve?: boolean;
+  /** Redshift, instead of radialVelocityKms: every line moves to λ₀·(1 + z). */
+  z?: number;
+  /** Count fixed-ratio doublets ([O III], [N II]) together in the target total. */
+  doublets?: boolean;
+  /** Relative strength of each target line in the total (default 1 each). */
+  lineWeights?: Record<string, number>;
+  /** Sky lines, continuum and contrast gain (lib/engine/sky.ts). */
+  sky?: import('./sky').SkyRequest;
 }
 
 export interface ConeLineResult {
@@ -110,4 +118,16 @@ export interface ConeModelResult {
   angleHistogram: AngleBin[];
   coneCurve?: CurvePoints;
   warnings: string[];
+  /** Present when the request asked for a sky. */
+  sky?: import('./sky').SkyStudy;
+  /** Each target line with its weight, and their weighted total (z, doublets, several lines or weights given). */
+  target?: TargetTotal;
+}
+
+export interface TargetTotal {
+  /** The redshift applied (z, or v/c from radialVelocityKms). */
+  z: number;
+  lines: { id: string; wavelengthNm: number; weight: number; throughput: number; fromDoublet: boolean }[];
+  /** Σ wᵢ τᵢ / Σ wᵢ. */
+  total: number | null;
 }

@@ -16,6 +16,22 @@ export const opticSchema = z.object({
   mapping: z.enum(['tangent', 'sine']).optional(),
 });
 
+/** A typed sky: continuum per nm and line strengths by sky-line id (lib/engine/sky.ts). */
+export const skyModelSchema = z.object({
+  continuum: z.number({ error: 'sky.model.continuum must be a number' }).min(0, 'the continuum level cannot be negative').max(1e9, 'the continuum level is too large'),
+  lines: z.record(z.string().max(20), z.number({ error: 'a sky-line strength must be a number' }).min(0, 'a sky-line strength cannot be negative').max(1e9, 'a sky-line strength is too large')).default({}),
+});
+
+export const skyRequestSchema = z.object({
+  model: z.union([z.string({ error: 'sky.model is a model id or a typed model' }).max(40), skyModelSchema]),
+  reference: z
+    .union([
+      z.object({ curveId: z.number({ error: 'sky.reference.curveId must be a curve id' }).int().positive() }).strict(),
+      z.object({ boxFwhmNm: z.number({ error: 'sky.reference.boxFwhmNm must be a number of nm' }).positive('the box width must be above 0 nm').max(200, 'the box width must be at most 200 nm') }).strict(),
+    ], { error: 'sky.reference is { curveId } or { boxFwhmNm }' })
+    .optional(),
+});
+
 // docs/api.md, POST /api/model/cone.
 export const coneRequestSchema = z
   .object({
@@ -32,8 +48,13 @@ export const coneRequestSchema = z
     lineNm: z.number().positive().max(5000).optional(),
     radialVelocityKms: z.number().min(-30_000).max(30_000).optional(),
     includeCurve: z.boolean().optional(),
+    z: z.number({ error: 'z must be a number' }).min(-0.1, 'z must be at least −0.1').max(1, 'z must be at most 1').optional(),
+    doublets: z.boolean({ error: 'doublets must be true or false' }).optional(),
+    lineWeights: z.record(z.string().max(40), z.number({ error: 'a line weight must be a number' }).min(0, 'a line weight cannot be negative').max(1e6, 'a line weight must be at most 1 000 000')).optional(),
+    sky: skyRequestSchema.optional(),
   })
-  .refine((b) => (b.curveId === undefined) !== (b.points === undefined), { message: 'Send either curveId or points, not both and not neither', path: ['curveId'] });
+  .refine((b) => (b.curveId === undefined) !== (b.points === undefined), { message: 'Send either curveId or points, not both and not neither', path: ['curveId'] })
+  .refine((b) => b.z === undefined || b.radialVelocityKms === undefined, { message: 'Send either z or radialVelocityKms, not both', path: ['z'] });
 
 export const neffRequestSchema = z
   .object({

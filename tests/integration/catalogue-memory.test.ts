@@ -33,6 +33,8 @@ const SEARCHES = [
   'fNumber=1.4&obstruction=0.35&nEff=1.6&minThroughput=0.2&aoiMin=1',
   'line=SII-671&fNumber=2.8&minThroughput=0.5&cwlMin=660&peakMin=0.8&aoiMax=10',
   'fNumber=5&fieldAngleDeg=12&minThroughput=0.7&method=monochromator&sort=throughput&dir=asc',
+  'line=Ha&fNumber=2.5&obstruction=0.36&sort=contrast&sky=suburban',
+  'fNumber=3&obstruction=0.2&sort=contrast&sky=led-town&pageSize=7&page=2',
 ];
 
 describe('the in-process copy answers fitness searches exactly as the SQL does', () => {
@@ -48,6 +50,24 @@ describe('the in-process copy answers fitness searches exactly as the SQL does',
     }
     // the comparison means something only if most searches find curves
     expect(nonEmpty).toBeGreaterThanOrEqual(SEARCHES.length - 2);
+  });
+
+  it('the contrast sort gives the same gains both ways, each equal to the cone study\'s own sky gain over a 10 nm box', async () => {
+    const { runConeModel } = await import('@/lib/engine/cone-study');
+    const { curvePointsByIds } = await import('@/lib/catalogue/points');
+    const { defaultNEff } = await import('@/lib/catalogue/fitness-grid');
+    const p = parseSearchParams(new URLSearchParams('line=Ha&fNumber=2.5&obstruction=0.36&sort=contrast&sky=dark&pageSize=10'));
+    const fromSql = await searchCurves(null, p, { memory: false });
+    const fromCopy = await searchCurves(null, p);
+    expect(fromCopy.items.map((i) => [i.id, i.skyGain])).toEqual(fromSql.items.map((i) => [i.id, i.skyGain]));
+    expect(fromSql.items.length).toBeGreaterThan(1);
+    expect(fromSql.contrast?.note).toMatch(/computed exactly/);
+    const gains = fromSql.items.map((i) => i.skyGain ?? -1);
+    expect([...gains].sort((a, b) => b - a)).toEqual(gains);
+    const top = fromSql.items[0];
+    const stored = (await curvePointsByIds([top.id])).get(top.id)!;
+    const study = runConeModel({ points: stored.points, optic: { fNumber: 2.5, obstruction: 0.36 }, nEff: defaultNEff(stored.nEff), measuredAoiDeg: stored.aoiDeg, lines: ['Ha'], sky: { model: 'dark', reference: { boxFwhmNm: 10 } } });
+    expect(top.skyGain).toBeCloseTo(study.sky!.gain!, 10);
   });
 
   it('the same when the grid is read a few rows at a time', async () => {

@@ -1,3 +1,4 @@
+import { UnitOdds } from '@/components/catalogue/unit-odds';
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
@@ -269,6 +270,10 @@ export default async function CurvePage({ params }: Props) {
           ) : (
             <p className="text-sm text-muted">This is the only verified normal-incidence curve with this label, so there is no spread to show yet.</p>
           )}
+        </Card>
+
+        <Card title="Odds on your optic" className="md:col-span-2 xl:col-span-1">
+          <UnitOdds label={d.label} lines={d.lines.map((l) => ({ id: l.id, name: l.name }))} optics={optics} />
         </Card>
 
         <Card title="Cite this curve">

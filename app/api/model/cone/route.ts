@@ -5,6 +5,7 @@ import { coneRequestSchema } from '@/lib/schemas/model';
 import { runConeModel } from '@/lib/engine/cone-study';
 import { currentActor } from '@/lib/auth/actor';
 import { loadReadableCurve } from '@/lib/catalogue/points';
+import { resolveSkyReference } from '@/lib/model/sky';
 
 export const POST = withErrors(async (req: Request) => {
   const body = coneRequestSchema.parse(await readJson(req, POINTS_BODY_MAX));
@@ -16,6 +17,7 @@ export const POST = withErrors(async (req: Request) => {
     // A stored curve knows the angle it was measured at.
     measuredAoiDeg ??= curve.aoiDeg;
   }
-  const { curveId: _ignored, ...rest } = body;
-  return NextResponse.json(runConeModel({ ...rest, measuredAoiDeg, points: points! }));
+  const { curveId: _ignored, sky: skyBody, ...rest } = body;
+  const sky = skyBody ? await resolveSkyReference(req, skyBody) : undefined;
+  return NextResponse.json(runConeModel({ ...rest, measuredAoiDeg, points: points!, sky }));
 });

@@ -1,0 +1,17 @@
+import 'server-only';
+import { currentActor } from '@/lib/auth/actor';
+import { loadReadableCurve } from '@/lib/catalogue/points';
+import type { SkyRequest } from '@/lib/engine/sky';
+import type { z } from 'zod';
+import type { skyRequestSchema } from '@/lib/schemas/model';
+
+/** A reference curve named by id becomes its points (readable curves only), measured AOI and label. */
+export async function resolveSkyReference(req: Request, sky: z.infer<typeof skyRequestSchema>): Promise<SkyRequest> {
+  const ref = sky.reference;
+  if (!ref || !('curveId' in ref)) return { model: sky.model, reference: ref };
+  const curve = await loadReadableCurve(await currentActor(req), ref.curveId);
+  return {
+    model: sky.model,
+    reference: { points: { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission }, measuredAoiDeg: curve.aoiDeg, label: `curve #${curve.id}` },
+  };
+}
