@@ -57,7 +57,7 @@ export interface CurveDetail {
   reviews: { kind: string; note: string; at: string; by: string | null }[];
   unitSpread: UnitSpread & { curves: { id: number; cwlNm: number | null; fwhmNm: number | null }[]; normalIncidenceOnly: true };
   citation: string;
-  links: { self: string; page: string; points: string; csv: string; json: string; study: string };
+  links: { self: string; page: string; points: string; csv: string; json: string; study: string; bibtex: string; csl: string; jcamp: string; votable: string };
 }
 
 const iso = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString() : null);
@@ -167,6 +167,10 @@ export async function getCurveDetail(actor: Actor | null, id: number, origin: st
       csv: `/api/curves/${curve.id}/csv`,
       json: `/api/curves/${curve.id}/json`,
       study: `/study?curve=${curve.id}`,
+      bibtex: `/api/curves/${curve.id}/cite?format=bibtex`,
+      csl: `/api/curves/${curve.id}/cite?format=csl`,
+      jcamp: `/api/curves/${curve.id}/jcamp`,
+      votable: `/api/curves/${curve.id}/votable`,
     },
   };
 }

@@ -114,6 +114,14 @@ export default async function CurvePage({ params }: Props) {
             ·{' '}
             <a href={d.links.json} className="text-accent underline-offset-4 hover:underline" download>
               JSON
+            </a>{' '}
+            ·{' '}
+            <a href={d.links.jcamp} className="text-accent underline-offset-4 hover:underline" data-testid="download-jcamp" download title="JCAMP-DX 4.24, for lab spectroscopy software">
+              JCAMP-DX
+            </a>{' '}
+            ·{' '}
+            <a href={d.links.votable} className="text-accent underline-offset-4 hover:underline" data-testid="download-votable" download title="IVOA VOTable 1.4, for astropy and TOPCAT">
+              VOTable
             </a>
           </span>
         </div>
@@ -275,9 +283,20 @@ export default async function CurvePage({ params }: Props) {
           <p className="text-sm" data-testid="citation">
             {d.citation}
           </p>
-          <div className="mt-2">
+          <div className="mt-2 flex flex-wrap items-center gap-3 text-sm">
             <CopyText text={d.citation} label="Copy citation" />
+            <a href={d.links.bibtex} className="text-accent underline-offset-4 hover:underline" data-testid="cite-bibtex">
+              BibTeX
+            </a>
+            <a href={d.links.csl} className="text-accent underline-offset-4 hover:underline" data-testid="cite-csl">
+              CSL-JSON
+            </a>
           </div>
+          <p className="mt-2 text-xs text-muted" data-testid="cite-permanence">
+            {d.status === 'verified' || d.status === 'superseded'
+              ? `Revision ${d.revision} is fixed: its points, raw-file hash, method, derived numbers, licence and attribution never change. A correction becomes a new revision at its own address, so this citation keeps pointing at these numbers.`
+              : 'Not yet verified: this curve may still change, so cite it only once a moderator has verified it.'}
+          </p>
         </Card>
       </div>
     </article>
