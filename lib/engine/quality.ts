@@ -179,3 +179,23 @@ export function assessQuality(q: QualityInput): QualityItem[] {
   }
   return out;
 }
+
+/** The assessment of a stored curve from its points and method (the numbers are computed here, as the catalogue stores them). */
+export function assessCurveQuality(points: CurvePoints, method: Record<string, unknown>, nEff: number, tempCoeffNmPerC?: number): QualityItem[] {
+  const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : undefined);
+  const m = computeMetrics(points);
+  return assessQuality({
+    metrics: m,
+    points,
+    nEff,
+    tempCoeffNmPerC,
+    method: {
+      instrument: typeof method.instrument === 'string' ? method.instrument : undefined,
+      resolutionNm: num(method.resolutionNm),
+      beam: method.beam === 'converging' || method.beam === 'collimated' ? method.beam : undefined,
+      beamFNumber: num(method.beamFNumber),
+      temperatureC: num(method.temperatureC),
+      wavelengthUncertaintyNm: num(method.wavelengthUncertaintyNm),
+    },
+  });
+}

@@ -15,6 +15,8 @@ import { CurveChart } from '@/components/catalogue/curve-chart';
 import { AddToCompare, CopyText } from '@/components/catalogue/curve-actions';
 import { SolarCaution } from '@/components/catalogue/solar-caution';
 import { INSTRUMENT_NAMES } from '@/components/catalogue/labels';
+import { QualityList } from '@/components/review/quality-list';
+import { assessCurveQuality } from '@/lib/engine/quality';
 
 type Props = { params: Promise<{ id: string }> };
 
@@ -83,6 +85,7 @@ export default async function CurvePage({ params }: Props) {
   const solar = d.lines.some((l) => l.id === 'Ha');
   const nominal = d.nominal.cwlNm && d.nominal.fwhmNm ? { cwlNm: d.nominal.cwlNm, fwhmNm: d.nominal.fwhmNm } : null;
   const contributorHref = `/curves?contributor=${d.contributor.id}`;
+  const quality = assessCurveQuality(points, d.method, d.derived.nEff ?? DEFAULT_N_EFF);
 
   return (
     <article className="space-y-5" data-testid="curve-page">
@@ -197,6 +200,13 @@ export default async function CurvePage({ params }: Props) {
             </div>
           ) : null}
           {d.notes ? <p className="mt-3 whitespace-pre-line text-sm text-muted">{d.notes}</p> : null}
+        </Card>
+
+        <Card title="Measurement quality">
+          <div data-testid="curve-quality">
+            <QualityList items={quality} />
+          </div>
+          <p className="mt-2 text-xs text-muted">Judged from the declared method; a default stands in for anything not declared and says so.</p>
         </Card>
 
         <Card title="Provenance">
