@@ -2,10 +2,12 @@
 
 import Link from 'next/link';
 import { useState } from 'react';
-import { formatDeg, formatNm } from '@/components/charts/format';
+import { formatDeg, formatFNumber, formatNm } from '@/components/charts/format';
 import { coneRequestBody } from '@/lib/study/compute';
 import type { CurveStudy, StudySettings } from '@/lib/study/types';
 import { verdictFor, type Tone } from '@/lib/study/verdict';
+import { firstOrderTrust } from '@/lib/engine/first-order-designs';
+import { FIRST_ORDER_TABLE } from '@/lib/engine/first-order-table';
 
 const TONE: Record<Tone, { className: string; word: string; icon: string }> = {
   good: { className: 'text-ok border-ok', word: 'Keeps most of the line', icon: 'M3 8.5 6.5 12 13 4.5' },
@@ -93,6 +95,8 @@ export function VerdictCard({ study, settings, colour }: { study: CurveStudy; se
         ))}
       </dl>
 
+      <ModelLimit study={study} settings={settings} />
+
       {v.warnings.length ? (
         <ul className="space-y-1 border-t border-rule bg-paper px-4 py-2 text-xs" aria-label="Coverage and model warnings">
           {v.warnings.map((w) => (
@@ -108,6 +112,24 @@ export function VerdictCard({ study, settings, colour }: { study: CurveStudy; se
       ) : null}
       <ApiCall study={study} settings={settings} />
     </article>
+  );
+}
+
+/**
+ * How far the first-order figure can be trusted for this optic and curve: the
+ * table of docs/model-limits.md (first order against exact multi-cavity stacks)
+ * interpolated at this f-number and FWHM, for the spacer family nearest this n_eff.
+ */
+function ModelLimit({ study, settings }: { study: CurveStudy; settings: StudySettings }) {
+  const fwhm = study.fwhm0Nm ?? study.curve.fwhmNm;
+  const trust = fwhm ? firstOrderTrust(FIRST_ORDER_TABLE, { fNumber: settings.optic.fNumber, fwhmNm: fwhm, nEff: study.nEff }) : null;
+  if (!trust) return null;
+  const worst = Math.max(trust.over, trust.under);
+  return (
+    <p className="border-t border-rule px-4 py-2 text-xs text-muted" data-testid="verdict-model-limit" data-points={worst.toFixed(2)}>
+      <span className="font-medium text-ink">Model limit: {trust.sentence}</span>
+      {` (on axis at ${formatFNumber(settings.optic.fNumber)}, ${formatNm(fwhm)} FWHM, against exact ${trust.family}-index-spacer multi-cavity stacks${trust.clamped ? '; outside the compared range, nearest case shown' : ''}).`}
+    </p>
   );
 }
 
