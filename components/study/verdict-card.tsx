@@ -3,7 +3,8 @@
 import Link from 'next/link';
 import { useState } from 'react';
 import { formatDeg, formatFNumber, formatNm } from '@/components/charts/format';
-import { coneRequestBody } from '@/lib/study/compute';
+import { coneRequestBody, refTempFor, tempCoeffFor } from '@/lib/study/compute';
+import { COATING_NAMES, defaultTempCoeff } from '@/lib/engine/temperature';
 import type { CurveStudy, StudySettings } from '@/lib/study/types';
 import { verdictFor, type Tone } from '@/lib/study/verdict';
 import { firstOrderTrust } from '@/lib/engine/first-order-designs';
@@ -96,6 +97,7 @@ export function VerdictCard({ study, settings, colour }: { study: CurveStudy; se
       </dl>
 
       <ModelLimit study={study} settings={settings} />
+      <TemperatureNote study={study} settings={settings} />
 
       {v.warnings.length ? (
         <ul className="space-y-1 border-t border-rule bg-paper px-4 py-2 text-xs" aria-label="Coverage and model warnings">
@@ -112,6 +114,30 @@ export function VerdictCard({ study, settings, colour }: { study: CurveStudy; se
       ) : null}
       <ApiCall study={study} settings={settings} />
     </article>
+  );
+}
+
+/** Which temperature coefficient moved this curve, and that a coating's figure is a default. */
+function TemperatureNote({ study, settings }: { study: CurveStudy; settings: StudySettings }) {
+  if (settings.tempC == null) return null;
+  const k = tempCoeffFor(study.curve, settings);
+  const ref = refTempFor(study.curve, settings).value;
+  let text: string;
+  if (!k) text = `Coating not known: no temperature drift applied between ${ref} °C and ${settings.tempC} °C; type a coefficient to apply one.`;
+  else {
+    const shift = k.value * (settings.tempC - ref);
+    const from =
+      k.source === 'typed'
+        ? 'the typed coefficient'
+        : k.source === 'fitted'
+          ? "the coefficient fitted from this unit's curves at several temperatures"
+          : `the default for a ${COATING_NAMES[study.curve.coating ?? 'unknown']} coating (${defaultTempCoeff(study.curve.coating)?.source}), a default rather than a measurement`;
+    text = `Temperature: ${settings.tempC} °C against ${ref} °C moves the passband ${shift >= 0 ? '+' : ''}${shift.toFixed(3)} nm at ${k.value} nm/°C, ${from}.`;
+  }
+  return (
+    <p className="border-t border-rule px-4 py-2 text-xs text-muted" data-testid="verdict-temperature">
+      {text}
+    </p>
   );
 }
 

@@ -45,6 +45,8 @@ export interface CurveDetail {
     effectiveBandwidthNm: number | null;
     blockingOd: number | null;
     nEff: number | null;
+    /** dCWL/dT fitted from the unit's curves at several temperatures, nm/°C. */
+    tempCoeffNmPerC: number | null;
     pointCount: number;
     lineTransmission: { id: string; name: string; wavelengthNm: number; transmission: number }[];
   };
@@ -140,6 +142,7 @@ export async function getCurveDetail(actor: Actor | null, id: number, origin: st
       effectiveBandwidthNm: curve.effectiveBandwidthNm,
       blockingOd: curve.blockingOd,
       nEff: curve.nEff,
+      tempCoeffNmPerC: curve.tempCoeffNmPerC ?? null,
       pointCount: curve.pointCount,
       lineTransmission: Object.entries(lt)
         .map(([lid, t]) => ({ ...lineInfo(lid), transmission: t }))

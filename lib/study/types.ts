@@ -21,6 +21,10 @@ export interface StudyCurve {
   nEff: number | null;
   /** The temperature recorded with the measurement, °C. */
   tempC: number | null;
+  /** Declared coating (sets the default dCWL/dT); absent for pasted curves. */
+  coating?: import('@/lib/engine/temperature').Coating | null;
+  /** dCWL/dT fitted from the unit measured at several temperatures, nm/°C. */
+  tempCoeffNmPerC?: number | null;
   cwlNm: number | null;
   fwhmNm: number | null;
   peakT: number;

@@ -41,6 +41,8 @@ export async function loadStudyCurves(actor: Actor | null, ids: number[]): Promi
       aoiDeg: c.aoiDeg,
       nEff: c.nEff,
       tempC: typeof t === 'number' && Number.isFinite(t) ? t : null,
+      coating: ((c.method as { coating?: unknown })?.coating as StudyCurve['coating']) ?? null,
+      tempCoeffNmPerC: c.tempCoeffNmPerC ?? null,
       cwlNm: c.cwlNm,
       fwhmNm: c.fwhmNm,
       peakT: c.peakT,

@@ -168,3 +168,21 @@ describe('exports and requests', () => {
     });
   });
 });
+
+describe('operating against measurement temperature without a typed coefficient', () => {
+  const opt = { id: null, name: 'Typed optic', fNumber: 2.5, obstruction: 0.36, fieldAngleDeg: 0, mapping: 'tangent' as const };
+  it('a hard-coated curve measured at 20 °C, used at −10 °C, moves by the coating default 0.0035 nm/°C × −30 °C', () => {
+    const c = { ...flatTop(HA, 3), tempC: 20, coating: 'hard' as const };
+    const body = coneRequestBody(c, settings({ optic: opt, tempC: -10 }));
+    expect(body.tempCoeffNmPerC).toBe(0.0035);
+    expect(body.refTempC).toBe(20);
+    const study = studyCurve(c, settings({ optic: opt, tempC: -10 }));
+    expect(study.totalShiftNm).toBeCloseTo(0.0035 * -30, 12);
+  });
+  it('a fitted coefficient wins over the coating default; a typed one over both; unknown coating applies none', () => {
+    const c = { ...flatTop(HA, 3), tempC: 20, coating: 'soft' as const, tempCoeffNmPerC: 0.011 };
+    expect(coneRequestBody(c, settings({ optic: opt, tempC: 0 })).tempCoeffNmPerC).toBe(0.011);
+    expect(coneRequestBody(c, settings({ optic: opt, tempC: 0, tempCoeffNmPerC: 0.002 })).tempCoeffNmPerC).toBe(0.002);
+    expect(coneRequestBody({ ...flatTop(HA, 3), coating: 'unknown' }, settings({ optic: opt, tempC: 0 })).tempCoeffNmPerC).toBeUndefined();
+  });
+});

@@ -17,6 +17,7 @@ import { SolarCaution } from '@/components/catalogue/solar-caution';
 import { INSTRUMENT_NAMES } from '@/components/catalogue/labels';
 import { QualityList } from '@/components/review/quality-list';
 import { assessCurveQuality } from '@/lib/engine/quality';
+import { COATING_NAMES, defaultTempCoeff, type Coating } from '@/lib/engine/temperature';
 
 type Props = { params: Promise<{ id: string }> };
 
@@ -71,6 +72,16 @@ function methodRows(d: CurveDetail) {
     ['Angle of incidence', formatDeg(d.aoiDeg)],
     ['Temperature', m.temperatureC !== undefined ? `${fixed(Number(m.temperatureC), 1)} °C` : '—'],
     ['Polarisation', m.polarization ? String(m.polarization) : '—'],
+    ['Coating', COATING_NAMES[(m.coating as Coating | undefined) ?? 'unknown'] ?? '—'],
+    [
+      'Temperature drift',
+      d.derived.tempCoeffNmPerC !== null
+        ? `${fixed(d.derived.tempCoeffNmPerC, 4)} nm/°C (fitted)`
+        : defaultTempCoeff(m.coating as Coating | undefined)
+          ? `${defaultTempCoeff(m.coating as Coating)!.nmPerC} nm/°C (default for the coating)`
+          : '—',
+    ],
+    ['Wavelength-scale uncertainty', m.wavelengthUncertaintyNm !== undefined ? `± ${formatNm(Number(m.wavelengthUncertaintyNm), 2)}` : 'not declared'],
     ['Measured on', d.measuredOn ?? '—'],
     ['Where', d.lab ?? '—'],
   ];
@@ -85,7 +96,12 @@ export default async function CurvePage({ params }: Props) {
   const solar = d.lines.some((l) => l.id === 'Ha');
   const nominal = d.nominal.cwlNm && d.nominal.fwhmNm ? { cwlNm: d.nominal.cwlNm, fwhmNm: d.nominal.fwhmNm } : null;
   const contributorHref = `/curves?contributor=${d.contributor.id}`;
-  const quality = assessCurveQuality(points, d.method, d.derived.nEff ?? DEFAULT_N_EFF);
+  const quality = assessCurveQuality(
+    points,
+    d.method,
+    d.derived.nEff ?? DEFAULT_N_EFF,
+    d.derived.tempCoeffNmPerC ?? defaultTempCoeff(d.method.coating as Coating | undefined)?.nmPerC,
+  );
 
   return (
     <article className="space-y-5" data-testid="curve-page">
