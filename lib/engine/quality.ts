@@ -86,6 +86,14 @@ export const DEFAULT_WAVELENGTH_UNCERTAINTY_NM: Record<string, number> = {
 
 const nm = (v: number, d = 2) => `${v.toFixed(d)} nm`;
 
+/** The wavelength-scale uncertainty of a stored method: the declared one, else the instrument's default (and which). */
+export function wavelengthUncertaintyOf(method: Record<string, unknown>): { nm: number; declared: boolean } {
+  const d = method.wavelengthUncertaintyNm;
+  if (typeof d === 'number' && Number.isFinite(d) && d > 0) return { nm: d, declared: true };
+  const inst = typeof method.instrument === 'string' ? method.instrument : 'other';
+  return { nm: DEFAULT_WAVELENGTH_UNCERTAINTY_NM[inst] ?? DEFAULT_WAVELENGTH_UNCERTAINTY_NM.other, declared: false };
+}
+
 /** The CWL shift a converging f/N measuring beam gave the curve (negative: to the blue), or null. */
 export function convergingBeamBiasNm(points: CurvePoints, fNumber: number, nEff: number): number | null {
   const before = computeMetrics(points);

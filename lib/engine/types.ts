@@ -83,6 +83,10 @@ export interface ConeModelInput extends ShiftParams {
   lineNm?: number;
   radialVelocityKms?: number;
   includeCurve?: boolean;
+  /** Standard uncertainty of the curve's wavelength scale, nm: gives each line a throughputRange. */
+  wavelengthUncertaintyNm?: number;
+  /** Uncertainty of n_eff (of a fitted set): widens the ranges. */
+  nEffUncertainty?: number;
 }
 
 export interface ConeLineResult {
@@ -92,6 +96,10 @@ export interface ConeLineResult {
   throughput: number;
   /** null stands for an infinite f-number (no line signal at all). */
   speedEquivalentFNumber: number | null;
+  /** Lowest and highest throughput within the wavelength and n_eff uncertainties (when given). */
+  throughputRange?: [number, number];
+  /** Speed-equivalent f-numbers at the two ends of throughputRange (null: infinite). */
+  speedEquivalentRange?: [number | null, number | null];
 }
 
 export interface NeighbourResult {
@@ -104,7 +112,7 @@ export interface NeighbourResult {
 /** Response of POST /api/model/cone. */
 export interface ConeModelResult {
   lines: ConeLineResult[];
-  bestPreShift: { nm: number; throughput: number } | null;
+  bestPreShift: { nm: number; throughput: number; nmRange?: [number, number] } | null;
   neighbours: NeighbourResult[];
   contrast: number | null;
   angleHistogram: AngleBin[];

@@ -32,6 +32,9 @@ export const coneRequestSchema = z
     lineNm: z.number().positive().max(5000).optional(),
     radialVelocityKms: z.number().min(-30_000).max(30_000).optional(),
     includeCurve: z.boolean().optional(),
+    // error bars: the wavelength-scale uncertainty (nm) and the n_eff uncertainty; a stored curve supplies its own by default
+    wavelengthUncertaintyNm: z.number().min(0).max(10, 'wavelengthUncertaintyNm must be at most 10 nm').optional(),
+    nEffUncertainty: z.number().min(0).max(1, 'nEffUncertainty must be at most 1').optional(),
   })
   .refine((b) => (b.curveId === undefined) !== (b.points === undefined), { message: 'Send either curveId or points, not both and not neither', path: ['curveId'] });
 
