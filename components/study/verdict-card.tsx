@@ -2,11 +2,12 @@
 
 import Link from 'next/link';
 import { useState } from 'react';
-import { formatDeg, formatFNumber, formatNm } from '@/components/charts/format';
+import { formatDeg, formatFNumber, formatNm, formatTransmission } from '@/components/charts/format';
 import { coneRequestBody, refTempFor, tempCoeffFor } from '@/lib/study/compute';
 import { COATING_NAMES, defaultTempCoeff } from '@/lib/engine/temperature';
 import type { CurveStudy, StudySettings } from '@/lib/study/types';
 import { verdictFor, type Tone } from '@/lib/study/verdict';
+import { straddledMarks } from '@/lib/study/error-bar';
 import { firstOrderTrust } from '@/lib/engine/first-order-designs';
 import { FIRST_ORDER_TABLE } from '@/lib/engine/first-order-table';
 
@@ -96,6 +97,7 @@ export function VerdictCard({ study, settings, colour }: { study: CurveStudy; se
         ))}
       </dl>
 
+      <ErrorBar study={study} />
       <ModelLimit study={study} settings={settings} />
       <TemperatureNote study={study} settings={settings} />
 
@@ -114,6 +116,29 @@ export function VerdictCard({ study, settings, colour }: { study: CurveStudy; se
       ) : null}
       <ApiCall study={study} settings={settings} />
     </article>
+  );
+}
+
+/** The line throughput's range within the curve's wavelength-scale uncertainty, and whether it straddles a verdict mark. */
+function ErrorBar({ study }: { study: CurveStudy }) {
+  const line = study.onAxis.lines[0];
+  const range = line?.throughputRange;
+  const u = study.curve.wavelengthUncertainty;
+  if (!range || !u) return null;
+  const [lo, hi] = range;
+  const marks = straddledMarks(range);
+  return (
+    <p className="border-t border-rule px-4 py-2 text-xs text-muted" data-testid="verdict-range" data-low={lo} data-high={hi}>
+      <span className="figures font-medium text-ink">
+        {formatTransmission(lo)} – {formatTransmission(hi)}
+      </span>
+      {` within ±${formatNm(u.nm)} of wavelength-scale uncertainty (${u.declared ? 'declared' : 'the default for its instrument, not declared'}).`}
+      {marks.length ? (
+        <span className="block font-medium text-wait" data-testid="verdict-straddle">
+          The range straddles the {marks.map((m) => `${m * 100} %`).join(' and ')} mark: within this measurement&apos;s accuracy the verdict could go either way.
+        </span>
+      ) : null}
+    </p>
   );
 }
 

@@ -77,6 +77,7 @@ export function coneRequestBody(curve: StudyCurve, s: StudySettings, fieldAngleD
   if ('id' in s.line) body.lines = [s.line.id];
   else body.lineNm = s.line.nm;
   if (s.radialVelocityKms !== 0) body.radialVelocityKms = s.radialVelocityKms;
+  if (curve.wavelengthUncertainty) body.wavelengthUncertaintyNm = curve.wavelengthUncertainty.nm;
   return body;
 }
 

@@ -25,6 +25,8 @@ export interface StudyCurve {
   coating?: import('@/lib/engine/temperature').Coating | null;
   /** dCWL/dT fitted from the unit measured at several temperatures, nm/°C. */
   tempCoeffNmPerC?: number | null;
+  /** Wavelength-scale uncertainty, nm, and whether it was declared or is the instrument's default (error bars). */
+  wavelengthUncertainty?: { nm: number; declared: boolean } | null;
   cwlNm: number | null;
   fwhmNm: number | null;
   peakT: number;

@@ -186,3 +186,19 @@ describe('operating against measurement temperature without a typed coefficient'
     expect(coneRequestBody({ ...flatTop(HA, 3), coating: 'unknown' }, settings({ optic: opt, tempC: 0 })).tempCoeffNmPerC).toBeUndefined();
   });
 });
+
+describe('error bars in the study', () => {
+  it('a catalogue curve sends its wavelength uncertainty, gets a throughput range around the figure, and a straddle is found', async () => {
+    const { straddledMarks } = await import('@/lib/study/error-bar');
+    const c = { ...flatTop(HA - 1.2, 3), wavelengthUncertainty: { nm: 0.3, declared: false } };
+    const s = settings({ optic: { id: null, name: 'Typed optic', fNumber: 2.5, obstruction: 0.36, fieldAngleDeg: 0, mapping: 'tangent' } });
+    expect(coneRequestBody(c, s).wavelengthUncertaintyNm).toBe(0.3);
+    const st = studyCurve(c, s);
+    const [lo, hi] = st.onAxis.lines[0].throughputRange!;
+    expect(lo).toBeLessThanOrEqual(st.onAxis.lines[0].throughput);
+    expect(hi).toBeGreaterThanOrEqual(st.onAxis.lines[0].throughput);
+    expect(straddledMarks([0.75, 0.85])).toEqual([0.8]);
+    expect(straddledMarks([0.4, 0.9])).toEqual([0.8, 0.5]);
+    expect(straddledMarks([0.81, 0.9])).toEqual([]);
+  });
+});
