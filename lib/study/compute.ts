@@ -176,6 +176,13 @@ export function studyCurve(curve: StudyCurve, s: StudySettings): CurveStudy {
 
   const fSweep = sweep(c, lineNm, fNumberGrid(), (N) => ({ fNumber: N, obstruction, mapping }), () => params);
   const fieldSweep = sweep(c, lineNm, fieldGrid(s.optic), (phi) => ({ fNumber, obstruction, mapping, fieldAngleDeg: phi }), () => params);
+  // error band of the f-number chart: the same sweep with the curve moved by ∓ its wavelength-scale uncertainty
+  const u = curve.wavelengthUncertainty?.nm ?? 0;
+  let fSweepRange: CurveStudy['fSweepRange'];
+  if (u > 0) {
+    const [a, b] = [-u, u].map((d) => sweep(c, lineNm, fSweep.x, (N) => ({ fNumber: N, obstruction, mapping }), () => ({ ...params, preShiftNm: (params.preShiftNm ?? 0) + d })).y);
+    fSweepRange = { low: fSweep.y.map((v, i) => Math.min(v, a[i], b[i])), high: fSweep.y.map((v, i) => Math.max(v, a[i], b[i])), uncertaintyNm: u };
+  }
 
   const sM = curve.aoiDeg > 0 ? angleScale(curve.aoiDeg, n.value) : 1;
   const { leftNm, rightNm } = halfMaximumEdges(c);
@@ -222,6 +229,7 @@ export function studyCurve(curve: StudyCurve, s: StudySettings): CurveStudy {
     edge,
     peakT: c.peak,
     fSweep,
+    ...(fSweepRange ? { fSweepRange } : {}),
     fieldSweep,
     shiftSweep,
     fwhm0Nm,

@@ -87,6 +87,8 @@ export interface CurveStudy {
   peakT: number;
   /** Line throughput against f-number, f/1–f/10, on axis with this obstruction. */
   fSweep: Series;
+  /** Its lower and upper edge within the curve's wavelength-scale uncertainty (the error band). */
+  fSweepRange?: { low: number[]; high: number[]; uncertaintyNm: number };
   /** Line throughput against the chief-ray angle, centre to edge. */
   fieldSweep: Series;
   /** Line throughput against pre-shift over the searched range. */

@@ -197,6 +197,13 @@ describe('error bars in the study', () => {
     const [lo, hi] = st.onAxis.lines[0].throughputRange!;
     expect(lo).toBeLessThanOrEqual(st.onAxis.lines[0].throughput);
     expect(hi).toBeGreaterThanOrEqual(st.onAxis.lines[0].throughput);
+    // the f-number chart's band holds the curve at every f-number and opens where the line sits on an edge
+    const band = st.fSweepRange!;
+    st.fSweep.y.forEach((v, i) => {
+      expect(band.low[i]).toBeLessThanOrEqual(v);
+      expect(band.high[i]).toBeGreaterThanOrEqual(v);
+    });
+    expect(Math.max(...band.high.map((h, i) => h - band.low[i]))).toBeGreaterThan(0.01);
     expect(straddledMarks([0.75, 0.85])).toEqual([0.8]);
     expect(straddledMarks([0.4, 0.9])).toEqual([0.8, 0.5]);
     expect(straddledMarks([0.81, 0.9])).toEqual([]);
