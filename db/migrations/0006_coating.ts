@@ -21,7 +21,7 @@ ALTER TABLE curves DROP COLUMN IF EXISTS coating;
 ALTER TABLE curves DROP CONSTRAINT IF EXISTS curves_method_coating;
 `;
 
-export default {
+const migration = {
   name: '0006_coating',
   up: async ({ sequelize }: MigrationContext) => {
     await sequelize.query(up);
@@ -30,3 +30,5 @@ export default {
     await sequelize.query(down);
   },
 };
+
+export default migration;
