@@ -3,6 +3,7 @@ import { Op } from 'sequelize';
 import { readCurveText, MAX_FILE_BYTES, MAX_ROWS } from '@/lib/engine/reader';
 import { computeMetrics } from '@/lib/engine/metrics';
 import { runChecks, normalisedPointsHash } from '@/lib/engine/checks';
+import { temperatureSet } from '@/lib/engine/temperature';
 import { fitEffectiveIndex } from '@/lib/engine/neff';
 import { CurveReadError } from '@/lib/engine/errors';
 import type { CurvePoints, Metrics, Check } from '@/lib/engine/types';
@@ -21,13 +22,15 @@ export type ParsedFile = {
   bytes: Buffer;
   sha256: string;
   aoiDeg: number;
+  /** The file's own temperature in a multi-temperature set, else the method's. */
+  temperatureC?: number;
   points: CurvePoints;
   metrics: Metrics;
   pointsHash: string;
   assumed: unknown;
 };
 
-export type Intake = { files: ParsedFile[]; checks: (Check & { file?: string })[]; level: 'info' | 'warn' | 'error'; nEff: number | null };
+export type Intake = { files: ParsedFile[]; checks: (Check & { file?: string })[]; level: 'info' | 'warn' | 'error'; nEff: number | null; tempCoeffNmPerC: number | null };
 
 /** Refuses a whole upload before anything is written: limits first, then every file's content. */
 export function checkLimits(files: IncomingFile[]) {
@@ -70,6 +73,7 @@ export function parseFiles(files: IncomingFile[], metadata: SubmissionMetadata):
       bytes: file.bytes,
       sha256: createHash('sha256').update(file.bytes).digest('hex'),
       aoiDeg: aoiFor(file, metadata, files.length),
+      temperatureC: metadata.files?.find((f) => f.name === file.name)?.temperatureC ?? metadata.method.temperatureC,
       points: read.points,
       metrics,
       pointsHash: createHash('sha256').update(normalisedPointsHash(read.points)).digest('hex'),
@@ -130,6 +134,9 @@ export async function assess(
       nEff = null; // the set check above already says why
     }
   }
+  // one unit at several temperatures: fit dCWL/dT (lib/engine/temperature.ts)
+  const temp = temperatureSet(parsed.map((p) => ({ aoiDeg: p.aoiDeg, tempC: p.temperatureC, cwlNm: p.metrics.cwlNm })), metadata.method.coating);
+  checks.push(...temp.checks);
   const level = checks.reduce<Intake['level']>((acc, c) => (LEVEL_RANK[c.level] > LEVEL_RANK[acc] ? c.level : acc), 'info');
-  return { files: parsed, checks, level, nEff };
+  return { files: parsed, checks, level, nEff, tempCoeffNmPerC: temp.fit ? temp.fit.nmPerC : null };
 }

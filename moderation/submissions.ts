@@ -37,7 +37,7 @@ async function insertCurves(submissionId: number, contributorId: string, revisio
         wavelengthNm: f.points.wavelengthNm, transmission: f.points.transmission, pointCount: f.points.wavelengthNm.length,
         pointsHash: f.pointsHash, peakT: m.peakT, cwlNm: m.cwlNm, fwhmNm: m.fwhmNm, meanInBandT: m.meanInBandT,
         effectiveBandwidthNm: m.effectiveBandwidthNm, blockingOd: m.blockingOd,
-        lineTransmission: Object.fromEntries(m.lines.map((l) => [l.id, l.transmission])), nEff: intake.nEff, verifiedAt: null,
+        lineTransmission: Object.fromEntries(m.lines.map((l) => [l.id, l.transmission])), nEff: intake.nEff, tempCoeffNmPerC: intake.tempCoeffNmPerC, verifiedAt: null,
       },
       { transaction },
     );

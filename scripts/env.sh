@@ -37,6 +37,13 @@ ensure_node_modules() {
   fi
 }
 
+# The VOTable tests validate with astropy (it bundles the IVOA VOTable schema) and, when present, xmllint.
+ensure_votable_validators() {
+  if ! /usr/bin/python3 -c 'import astropy.io.votable' >/dev/null 2>&1 || ! command -v xmllint >/dev/null 2>&1; then
+    apt_install python3-astropy libxml2-utils
+  fi
+}
+
 ensure_chromium() {
   if [ ! -x /usr/bin/chromium ]; then
     apt_install chromium

@@ -24,6 +24,7 @@ trap 'exit 130' INT TERM
 ensure_postgres
 ensure_node_modules
 ensure_chromium
+ensure_votable_validators
 ensure_secret
 TEST_DATA="${BANDCONE_TEST_DATA:-$ROOT/.data/pg-test}"
 start_cluster "$TEST_DATA" "$PGPORT"

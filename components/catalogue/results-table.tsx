@@ -124,7 +124,18 @@ export function ResultsTable(props: {
       {
         id: 'throughput',
         header: header('Line throughput', 'throughput'),
-        cell: ({ row }) => <span data-testid="throughput" data-raw={row.original.throughput ?? ''}>{formatTransmission(row.original.throughput)}</span>,
+        cell: ({ row }) => (
+          <span>
+            <span data-testid="throughput" data-raw={row.original.throughput ?? ''}>
+              {formatTransmission(row.original.throughput)}
+            </span>
+            {row.original.throughputRange ? (
+              <span className="block text-xs text-muted" data-testid="throughput-range" title="Within the curve's wavelength-scale uncertainty (declared, else its instrument's default)">
+                {formatTransmission(row.original.throughputRange[0], 0)}–{formatTransmission(row.original.throughputRange[1], 0)}
+              </span>
+            ) : null}
+          </span>
+        ),
         meta: { numeric: true } satisfies Meta,
       },
       {

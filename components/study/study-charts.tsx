@@ -81,7 +81,20 @@ export function StudyCharts({ results, settings, studies }: { results: StudyResu
     return [centre - half, centre + half];
   }, [studies]);
 
-  const fSeries = useMemo<XYSeries[]>(() => studies.map((st, i) => ({ name: seriesName(st), x: st.fSweep.x, y: st.fSweep.y, colorIndex: i })), [studies]);
+  // each curve with its error band: dashed edges in its own colour at ∓ its wavelength-scale uncertainty
+  const fSeries = useMemo<XYSeries[]>(
+    () =>
+      studies.flatMap((st, i) => [
+        { name: seriesName(st), x: st.fSweep.x, y: st.fSweep.y, colorIndex: i },
+        ...(st.fSweepRange
+          ? [
+              { name: `${seriesName(st)}, low (−${st.fSweepRange.uncertaintyNm} nm scale error)`, x: st.fSweep.x, y: st.fSweepRange.low, colorIndex: i, dashed: true },
+              { name: `${seriesName(st)}, high (+${st.fSweepRange.uncertaintyNm} nm scale error)`, x: st.fSweep.x, y: st.fSweepRange.high, colorIndex: i, dashed: true },
+            ]
+          : []),
+      ]),
+    [studies],
+  );
   const fieldSeries = useMemo<XYSeries[]>(() => studies.map((st, i) => ({ name: seriesName(st), x: st.fieldSweep.x, y: st.fieldSweep.y, colorIndex: i })), [studies]);
   const shiftSeries = useMemo<XYSeries[]>(() => studies.map((st, i) => ({ name: seriesName(st), x: st.shiftSweep.x, y: st.shiftSweep.y, colorIndex: i })), [studies]);
   const shiftMarkers = useMemo<XYMarker[]>(() => {

@@ -265,7 +265,7 @@ export function StudyInputs(p: StudyInputsProps) {
           placeholder={studies[0] ? fixed(studies[0].refTempC, 1) : '20'}
           onChange={(v) => setField('tref', v)}
           error={err.tref}
-          help="Empty uses the temperature recorded with each measurement, else 20 °C. Evaporated coatings move about 0.01–0.02 nm/°C (W. J. Smith); give both a temperature and a coefficient for a shift."
+          help="Empty uses the temperature recorded with each measurement, else 20 °C. An empty coefficient uses the one fitted from the unit's multi-temperature set, else the default for its declared coating (hard about 0.0035, soft about 0.015 nm/°C, W. J. Smith for evaporated coatings); a curve of unknown coating needs a typed coefficient."
         />
       </PanelSection>
     </div>

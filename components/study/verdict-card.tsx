@@ -2,10 +2,14 @@
 
 import Link from 'next/link';
 import { useState } from 'react';
-import { formatDeg, formatNm } from '@/components/charts/format';
-import { coneRequestBody } from '@/lib/study/compute';
+import { formatDeg, formatFNumber, formatNm, formatTransmission } from '@/components/charts/format';
+import { coneRequestBody, refTempFor, tempCoeffFor } from '@/lib/study/compute';
+import { COATING_NAMES, defaultTempCoeff } from '@/lib/engine/temperature';
 import type { CurveStudy, StudySettings } from '@/lib/study/types';
 import { verdictFor, type Tone } from '@/lib/study/verdict';
+import { straddledMarks } from '@/lib/study/error-bar';
+import { firstOrderTrust } from '@/lib/engine/first-order-designs';
+import { FIRST_ORDER_TABLE } from '@/lib/engine/first-order-table';
 
 const TONE: Record<Tone, { className: string; word: string; icon: string }> = {
   good: { className: 'text-ok border-ok', word: 'Keeps most of the line', icon: 'M3 8.5 6.5 12 13 4.5' },
@@ -93,6 +97,10 @@ export function VerdictCard({ study, settings, colour }: { study: CurveStudy; se
         ))}
       </dl>
 
+      <ErrorBar study={study} />
+      <ModelLimit study={study} settings={settings} />
+      <TemperatureNote study={study} settings={settings} />
+
       {v.warnings.length ? (
         <ul className="space-y-1 border-t border-rule bg-paper px-4 py-2 text-xs" aria-label="Coverage and model warnings">
           {v.warnings.map((w) => (
@@ -108,6 +116,71 @@ export function VerdictCard({ study, settings, colour }: { study: CurveStudy; se
       ) : null}
       <ApiCall study={study} settings={settings} />
     </article>
+  );
+}
+
+/** The line throughput's range within the curve's wavelength-scale uncertainty, and whether it straddles a verdict mark. */
+function ErrorBar({ study }: { study: CurveStudy }) {
+  const line = study.onAxis.lines[0];
+  const range = line?.throughputRange;
+  const u = study.curve.wavelengthUncertainty;
+  if (!range || !u) return null;
+  const [lo, hi] = range;
+  const marks = straddledMarks(range);
+  return (
+    <p className="border-t border-rule px-4 py-2 text-xs text-muted" data-testid="verdict-range" data-low={lo} data-high={hi}>
+      <span className="figures font-medium text-ink">
+        {formatTransmission(lo)} – {formatTransmission(hi)}
+      </span>
+      {` within ±${formatNm(u.nm)} of wavelength-scale uncertainty (${u.declared ? 'declared' : 'the default for its instrument, not declared'}).`}
+      {marks.length ? (
+        <span className="block font-medium text-wait" data-testid="verdict-straddle">
+          The range straddles the {marks.map((m) => `${m * 100} %`).join(' and ')} mark: within this measurement&apos;s accuracy the verdict could go either way.
+        </span>
+      ) : null}
+    </p>
+  );
+}
+
+/** Which temperature coefficient moved this curve, and that a coating's figure is a default. */
+function TemperatureNote({ study, settings }: { study: CurveStudy; settings: StudySettings }) {
+  if (settings.tempC == null) return null;
+  const k = tempCoeffFor(study.curve, settings);
+  const ref = refTempFor(study.curve, settings).value;
+  let text: string;
+  if (!k) text = `Coating not known: no temperature drift applied between ${ref} °C and ${settings.tempC} °C; type a coefficient to apply one.`;
+  else {
+    const shift = k.value * (settings.tempC - ref);
+    const from =
+      k.source === 'typed'
+        ? 'the typed coefficient'
+        : k.source === 'fitted'
+          ? "the coefficient fitted from this unit's curves at several temperatures"
+          : `the default for a ${COATING_NAMES[study.curve.coating ?? 'unknown']} coating (${defaultTempCoeff(study.curve.coating)?.source}), a default rather than a measurement`;
+    text = `Temperature: ${settings.tempC} °C against ${ref} °C moves the passband ${shift >= 0 ? '+' : ''}${shift.toFixed(3)} nm at ${k.value} nm/°C, ${from}.`;
+  }
+  return (
+    <p className="border-t border-rule px-4 py-2 text-xs text-muted" data-testid="verdict-temperature">
+      {text}
+    </p>
+  );
+}
+
+/**
+ * How far the first-order figure can be trusted for this optic and curve: the
+ * table of docs/model-limits.md (first order against exact multi-cavity stacks)
+ * interpolated at this f-number and FWHM, for the spacer family nearest this n_eff.
+ */
+function ModelLimit({ study, settings }: { study: CurveStudy; settings: StudySettings }) {
+  const fwhm = study.fwhm0Nm ?? study.curve.fwhmNm;
+  const trust = fwhm ? firstOrderTrust(FIRST_ORDER_TABLE, { fNumber: settings.optic.fNumber, fwhmNm: fwhm, nEff: study.nEff }) : null;
+  if (!trust) return null;
+  const worst = Math.max(trust.over, trust.under);
+  return (
+    <p className="border-t border-rule px-4 py-2 text-xs text-muted" data-testid="verdict-model-limit" data-points={worst.toFixed(2)}>
+      <span className="font-medium text-ink">Model limit: {trust.sentence}</span>
+      {` (on axis at ${formatFNumber(settings.optic.fNumber)}, ${formatNm(fwhm)} FWHM, against exact ${trust.family}-index-spacer multi-cavity stacks${trust.clamped ? '; outside the compared range, nearest case shown' : ''}).`}
+    </p>
   );
 }
 

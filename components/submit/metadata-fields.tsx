@@ -4,6 +4,7 @@ import { useWatch, type FieldErrors, type UseFormReturn } from 'react-hook-form'
 import { Field, inputClass } from '@/components/forms/field';
 import { LINES } from '@/lib/engine/lines';
 import { INSTRUMENTS, type SubmissionMetadataInput } from '@/lib/schemas/submission';
+import { COATINGS, COATING_NAMES } from '@/lib/engine/temperature';
 
 export type MetadataForm = SubmissionMetadataInput;
 
@@ -124,8 +125,17 @@ export function MetadataFields({ form, idPrefix = 'm', fileCount }: { form: UseF
               {err('method.aoiDeg') ? <p role="alert" className="text-bad">{err('method.aoiDeg')}</p> : null}
             </div>
           )}
-          <Field id={id('method.temperatureC')} label="Temperature" suffix="°C" error={err('method.temperatureC')} help="Interference coatings drift with temperature (about 0.01–0.02 nm per °C for evaporated coatings), so the temperature pins the CWL.">
+          <Field id={id('method.temperatureC')} label="Temperature" suffix="°C" error={err('method.temperatureC')} help="Interference coatings drift with temperature, so the temperature pins the CWL: hard (sputtered) coatings about 0.002–0.005 nm per °C, soft (evaporated) ones about 0.01–0.02 nm per °C.">
             <input id={id('method.temperatureC')} type="number" step="any" inputMode="decimal" {...register('method.temperatureC', { setValueAs: asNumber })} {...aria('method.temperatureC')} className={`${inputClass} rounded-r-none`} />
+          </Field>
+          <Field id={id('method.coating')} label="Coating" error={err('method.coating')} help="Sets the default temperature drift a study applies: hard (sputtered) about 0.0035 nm/°C, soft (evaporated) about 0.015 nm/°C. Both are defaults, shown as such; unknown applies none.">
+            <select id={id('method.coating')} {...register('method.coating', { setValueAs: asText })} {...aria('method.coating')} className={inputClass}>
+              <option value="">Not known</option>
+              {COATINGS.filter((c) => c !== 'unknown').map((c) => <option key={c} value={c}>{COATING_NAMES[c][0].toUpperCase() + COATING_NAMES[c].slice(1)}</option>)}
+            </select>
+          </Field>
+          <Field id={id('method.wavelengthUncertaintyNm')} label="Wavelength-scale uncertainty" suffix="nm" error={err('method.wavelengthUncertaintyNm')} help="How far the instrument's wavelength scale may be off (standard uncertainty). Left empty, the quality check uses a stated default for the instrument kind.">
+            <input id={id('method.wavelengthUncertaintyNm')} type="number" step="any" inputMode="decimal" {...register('method.wavelengthUncertaintyNm', { setValueAs: asNumber })} {...aria('method.wavelengthUncertaintyNm')} className={`${inputClass} rounded-r-none`} />
           </Field>
           <Field id={id('method.polarization')} label="Polarisation" error={err('method.polarization')} help="Off-normal, s and p light see different passbands; unpolarised is what an imaging optic delivers.">
             <select id={id('method.polarization')} {...register('method.polarization', { setValueAs: asText })} {...aria('method.polarization')} className={inputClass}>

@@ -4,6 +4,7 @@ import catalogue from './0002_catalogue';
 import catalogueVersion from './0003_catalogue_version';
 import mailQueueSessions from './0004_mail_queue_sessions';
 import appRoleAndGuards from './0005_app_role_and_guards';
+import coating from './0006_coating';
 import rateLimits from './0007_rate_limits';
 
 export type Migration = {
@@ -13,4 +14,4 @@ export type Migration = {
 };
 
 // Append new migrations here, in order; never edit one that has shipped.
-export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, rateLimits];
+export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, coating, rateLimits];

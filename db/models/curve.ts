@@ -40,6 +40,8 @@ export class Curve extends Model<InferAttributes<Curve>, InferCreationAttributes
   declare blockingOd: number | null;
   declare lineTransmission: Record<string, number>;
   declare nEff: number | null;
+  /** dCWL/dT fitted from the unit measured at several temperatures (migration 0006). */
+  declare tempCoeffNmPerC: CreationOptional<number | null>;
   declare verifiedAt: Date | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -82,6 +84,7 @@ export class Curve extends Model<InferAttributes<Curve>, InferCreationAttributes
         blockingOd: DataTypes.DOUBLE,
         lineTransmission: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         nEff: DataTypes.DOUBLE,
+        tempCoeffNmPerC: { type: DataTypes.DOUBLE, field: 'temp_coeff_nm_per_c' },
         verifiedAt: DataTypes.DATE,
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

@@ -43,6 +43,8 @@ export interface CurveDetail {
     effectiveBandwidthNm: number | null;
     blockingOd: number | null;
     nEff: number | null;
+    /** dCWL/dT fitted from the unit's curves at several temperatures, nm/°C. */
+    tempCoeffNmPerC: number | null;
     pointCount: number;
     lineTransmission: { id: string; name: string; wavelengthNm: number; transmission: number }[];
   };
@@ -55,7 +57,7 @@ export interface CurveDetail {
   reviews: { kind: string; note: string; at: string; by: string | null }[];
   unitSpread: UnitSpread & { curves: { id: number; cwlNm: number | null; fwhmNm: number | null }[]; normalIncidenceOnly: true };
   citation: string;
-  links: { self: string; page: string; points: string; csv: string; json: string; study: string };
+  links: { self: string; page: string; points: string; csv: string; json: string; study: string; bibtex: string; csl: string; jcamp: string; votable: string };
 }
 
 const iso = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString() : null);
@@ -138,6 +140,7 @@ export async function getCurveDetail(actor: Actor | null, id: number, origin: st
       effectiveBandwidthNm: curve.effectiveBandwidthNm,
       blockingOd: curve.blockingOd,
       nEff: curve.nEff,
+      tempCoeffNmPerC: curve.tempCoeffNmPerC ?? null,
       pointCount: curve.pointCount,
       lineTransmission: Object.entries(lt)
         .map(([lid, t]) => ({ ...lineInfo(lid), transmission: t }))
@@ -165,6 +168,10 @@ export async function getCurveDetail(actor: Actor | null, id: number, origin: st
       csv: `/api/curves/${curve.id}/csv`,
       json: `/api/curves/${curve.id}/json`,
       study: `/study?curve=${curve.id}`,
+      bibtex: `/api/curves/${curve.id}/cite?format=bibtex`,
+      csl: `/api/curves/${curve.id}/cite?format=csl`,
+      jcamp: `/api/curves/${curve.id}/jcamp`,
+      votable: `/api/curves/${curve.id}/votable`,
     },
   };
 }

@@ -26,11 +26,15 @@ export async function loadReadableCurve(actor: Actor | null, id: number, withPoi
 }
 
 /** Whole curves by id for the engine (no readability check: callers pass ids a search has already filtered), sent in binary form. */
-export async function curvePointsByIds(ids: number[]): Promise<Map<number, { aoiDeg: number; nEff: number | null; fwhmNm: number | null; points: CurvePoints }>> {
+export async function curvePointsByIds(
+  ids: number[],
+): Promise<Map<number, { aoiDeg: number; nEff: number | null; fwhmNm: number | null; method: Record<string, unknown>; points: CurvePoints }>> {
   if (ids.length === 0) return new Map();
-  const rows = await db().sequelize.query<{ id: number; aoi_deg: number; n_eff: number | null; fwhm_nm: number | null; w: Buffer; t: Buffer }>(
-    `SELECT id, aoi_deg, n_eff, fwhm_nm, ${binaryArraySql('wavelength_nm')} AS w, ${binaryArraySql('transmission')} AS t FROM curves WHERE id = ANY($1::int[])`,
+  const rows = await db().sequelize.query<{ id: number; aoi_deg: number; n_eff: number | null; fwhm_nm: number | null; method: Record<string, unknown>; w: Buffer; t: Buffer }>(
+    `SELECT id, aoi_deg, n_eff, fwhm_nm, method, ${binaryArraySql('wavelength_nm')} AS w, ${binaryArraySql('transmission')} AS t FROM curves WHERE id = ANY($1::int[])`,
     { bind: [ids], type: QueryTypes.SELECT },
   );
-  return new Map(rows.map((r) => [r.id, { aoiDeg: r.aoi_deg, nEff: r.n_eff, fwhmNm: r.fwhm_nm, points: { wavelengthNm: readFloat8Array(r.w), transmission: readFloat8Array(r.t) } }]));
+  return new Map(
+    rows.map((r) => [r.id, { aoiDeg: r.aoi_deg, nEff: r.n_eff, fwhmNm: r.fwhm_nm, method: r.method ?? {}, points: { wavelengthNm: readFloat8Array(r.w), transmission: readFloat8Array(r.t) } }]),
+  );
 }

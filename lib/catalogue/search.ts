@@ -9,6 +9,7 @@ import { db } from '@/db/models';
 import { hasRole, type Actor } from '@/lib/auth/actor';
 import { forbidden } from '@/lib/http/errors';
 import { lineThroughput } from '@/lib/engine/cone';
+import { wavelengthUncertaintyOf } from '@/lib/engine/quality';
 import { prepareCurve } from '@/lib/engine/curve';
 import { findLine } from '@/lib/engine/lines';
 import { buildPupil, type Pupil } from '@/lib/engine/pupil';
@@ -36,6 +37,8 @@ export interface SearchItem {
   aoiDeg: number;
   verifiedAt: string | null;
   throughput?: number;
+  /** Throughput at ∓ the curve's wavelength-scale uncertainty (declared, else its instrument's default). */
+  throughputRange?: [number, number];
   speedEquivalentFNumber?: number | null;
   /** Contrast gain over an ideal 10 nm box under the search's sky (sort=contrast only). */
   skyGain?: number | null;
@@ -478,8 +481,13 @@ async function finishPage(p: SearchParams, pupil: Pupil | undefined, items: Sear
       const line = lineId ? findLine(lineId) : undefined;
       if (!line) continue;
       const c = prepareCurve(r.points);
-      const tau = lineThroughput(c, pupil, line.airNm, { nEff: p.nEff ?? defaultNEff(r.nEff), measuredAoiDeg: r.aoiDeg }).throughput;
+      const params = { nEff: p.nEff ?? defaultNEff(r.nEff), measuredAoiDeg: r.aoiDeg };
+      const tau = lineThroughput(c, pupil, line.airNm, params).throughput;
       item.throughput = tau;
+      // error bar: a wavelength-scale error u acts as a pre-shift of ±u (as in the cone response)
+      const u = wavelengthUncertaintyOf(r.method).nm;
+      const ends = [-u, u].map((d) => lineThroughput(c, pupil, line.airNm, { ...params, preShiftNm: d }).throughput);
+      item.throughputRange = [Math.min(tau, ...ends), Math.max(tau, ...ends)];
       item.speedEquivalentFNumber = tau > 1e-12 && c.peak > 0 ? p.fNumber * Math.sqrt(c.peak / tau) : null;
     }
   }

@@ -43,8 +43,33 @@ export const FWHM_TOLERANCE = 0.15;
 export const COVERAGE_FWHMS = 3;
 export const PEAK_ERROR_ABOVE = 1.02;
 export const PEAK_LOW_BELOW = 0.2;
-/** Effective indices of common coatings span roughly this range (common practice). */
-const NEFF_PLAUSIBLE: [number, number] = [1.4, 2.4];
+/**
+ * What thin-film physics allows for n_eff: it lies between the low and the high
+ * index of the coating's materials (Macleod, Thin-Film Optical Filters, ch. 7:
+ * the effective index of a cavity filter falls between its spacer's index and
+ * that of the other material). Material indices in the visible, from memory:
+ * MgF2 1.38 and SiO2 1.46 (low); Ta2O5 about 2.1, Nb2O5 about 2.3, TiO2 about
+ * 2.35–2.4 (high). In the near infrared (beyond 1000 nm) silicon, about 3.5,
+ * serves as a high-index layer.
+ */
+export const NEFF_MATERIAL_LOW = 1.38;
+export const NEFF_VISIBLE_HIGH = 2.4;
+export const NEFF_NEAR_IR_HIGH = 3.6;
+export const NEAR_IR_FROM_NM = 1000;
+const NEFF_PLAUSIBLE: [number, number] = [NEFF_MATERIAL_LOW, NEFF_VISIBLE_HIGH];
+
+/** Whether a fitted effective index is physically plausible at this wavelength, and why not. */
+export function neffPlausibility(nEff: number, cwlNm: number): { plausible: boolean; reason: string } {
+  const high = cwlNm >= NEAR_IR_FROM_NM ? NEFF_NEAR_IR_HIGH : NEFF_VISIBLE_HIGH;
+  const where = cwlNm >= NEAR_IR_FROM_NM ? 'in the near infrared (silicon about 3.5)' : 'in the visible (TiO2 about 2.35–2.4)';
+  if (nEff < NEFF_MATERIAL_LOW) {
+    return { plausible: false, reason: `n_eff ${nEff.toFixed(3)} is below the lowest coating index (MgF2 about 1.38): no thin-film stack shifts this fast with angle, so the AOIs, the CWLs or the files' order are probably wrong.` };
+  }
+  if (nEff > high) {
+    return { plausible: false, reason: `n_eff ${nEff.toFixed(3)} is above the highest coating index ${where}: no thin-film stack shifts this little with angle, so check the declared AOIs (a beam tilt read as degrees too small?) and the CWLs.` };
+  }
+  return { plausible: true, reason: `n_eff ${nEff.toFixed(3)} lies between the low and high coating indices (${NEFF_MATERIAL_LOW}–${high}).` };
+}
 
 const DEG = Math.PI / 180;
 const nm = (v: number, d = 2) => `${v.toFixed(d)} nm`;
@@ -160,6 +185,8 @@ function setChecks(set: { aoiDeg: number; metrics: Metrics }[]): Check[] {
       out.push({ code: 'set-neff', level: 'warn', message: `${text} That is outside 1.0–4.0, the range the model accepts.` });
     } else {
       out.push({ code: 'set-neff', level: 'info', message: text });
+      const p = neffPlausibility(fit.nEff, fit.cwl0Nm);
+      out.push({ code: 'set-neff-physical', level: p.plausible ? 'info' : 'warn', message: p.reason });
     }
   } catch (e) {
     if (!(e instanceof EngineInputError)) throw e;

@@ -183,9 +183,47 @@ export function runConeModel(input: ConeModelInput): ConeModelResult {
   if (contrast === null) warnings.push('The cone-averaged curve has no effective bandwidth, so the contrast figure is undefined.');
   if (!cone.covered) warnings.push('The measured range is narrower than the cone shift; the cone-averaged curve assumes zero transmission outside it.');
 
+  // Error bars (docs/model.md): a wavelength-scale error δ moves the measured curve by δ, which the model
+  // sees exactly as a pre-shift of δ; n_eff moves within its own uncertainty. Each line's throughput is
+  // evaluated at the corners (−u, 0, +u) × (n − σ, n, n + σ) and the lowest and highest kept.
+  const u = input.wavelengthUncertaintyNm ?? 0;
+  const sn = input.nEffUncertainty ?? 0;
+  let bestRange: [number, number] | undefined;
+  if (u > 0 || sn > 0) {
+    const deltas = u > 0 ? [-u, 0, u] : [0];
+    const indices = (sn > 0 ? [input.nEff - sn, input.nEff, input.nEff + sn] : [input.nEff]).filter((n) => n >= 1 && n <= 4);
+    lines.forEach((line, i) => {
+      let lo = Infinity;
+      let hi = -Infinity;
+      for (const d of deltas) {
+        for (const n of indices) {
+          const t = lineThroughput(c, pupil, line.wavelengthNm, { ...params, nEff: n, preShiftNm: (input.preShiftNm ?? 0) + d }).throughput;
+          lo = Math.min(lo, t);
+          hi = Math.max(hi, t);
+        }
+      }
+      const sef = (t: number) => (t > ZERO_THROUGHPUT && c.peak > 0 ? N * Math.sqrt(c.peak / t) : null);
+      lines[i] = { ...line, throughputRange: [lo, hi], speedEquivalentRange: [sef(hi), sef(lo)] };
+    });
+    if (best) {
+      // the best pre-shift undoes a wavelength error one for one; n_eff moves it through the cone
+      let lo = best.nm - u;
+      let hi = best.nm + u;
+      for (const n of indices) {
+        if (n === input.nEff) continue;
+        const b = bestPreShift(c, pupil, primary.wavelengthNm, { ...params, nEff: n });
+        if (b) {
+          lo = Math.min(lo, b.nm - u);
+          hi = Math.max(hi, b.nm + u);
+        }
+      }
+      bestRange = [Number(lo.toFixed(4)), Number(hi.toFixed(4))];
+    }
+  }
+
   const result: ConeModelResult = {
     lines,
-    bestPreShift: best ? { nm: best.nm, throughput: best.throughput } : null,
+    bestPreShift: best ? { nm: best.nm, throughput: best.throughput, ...(bestRange ? { nmRange: bestRange } : {}) } : null,
     neighbours,
     contrast,
     angleHistogram: angleHistogram(pupil, 0.5),

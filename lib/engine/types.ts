@@ -91,6 +91,10 @@ export interface ConeModelInput extends ShiftParams {
   lineWeights?: Record<string, number>;
   /** Sky lines, continuum and contrast gain (lib/engine/sky.ts). */
   sky?: import('./sky').SkyRequest;
+  /** Standard uncertainty of the curve's wavelength scale, nm: gives each line a throughputRange. */
+  wavelengthUncertaintyNm?: number;
+  /** Uncertainty of n_eff (of a fitted set): widens the ranges. */
+  nEffUncertainty?: number;
 }
 
 export interface ConeLineResult {
@@ -100,6 +104,10 @@ export interface ConeLineResult {
   throughput: number;
   /** null stands for an infinite f-number (no line signal at all). */
   speedEquivalentFNumber: number | null;
+  /** Lowest and highest throughput within the wavelength and n_eff uncertainties (when given). */
+  throughputRange?: [number, number];
+  /** Speed-equivalent f-numbers at the two ends of throughputRange (null: infinite). */
+  speedEquivalentRange?: [number | null, number | null];
 }
 
 export interface NeighbourResult {
@@ -112,7 +120,7 @@ export interface NeighbourResult {
 /** Response of POST /api/model/cone. */
 export interface ConeModelResult {
   lines: ConeLineResult[];
-  bestPreShift: { nm: number; throughput: number } | null;
+  bestPreShift: { nm: number; throughput: number; nmRange?: [number, number] } | null;
   neighbours: NeighbourResult[];
   contrast: number | null;
   angleHistogram: AngleBin[];

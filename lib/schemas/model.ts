@@ -52,6 +52,9 @@ export const coneRequestSchema = z
     doublets: z.boolean({ error: 'doublets must be true or false' }).optional(),
     lineWeights: z.record(z.string().max(40), z.number({ error: 'a line weight must be a number' }).min(0, 'a line weight cannot be negative').max(1e6, 'a line weight must be at most 1 000 000')).optional(),
     sky: skyRequestSchema.optional(),
+    // error bars: the wavelength-scale uncertainty (nm) and the n_eff uncertainty; a stored curve supplies its own by default
+    wavelengthUncertaintyNm: z.number().min(0).max(10, 'wavelengthUncertaintyNm must be at most 10 nm').optional(),
+    nEffUncertainty: z.number().min(0).max(1, 'nEffUncertainty must be at most 1').optional(),
   })
   .refine((b) => (b.curveId === undefined) !== (b.points === undefined), { message: 'Send either curveId or points, not both and not neither', path: ['curveId'] })
   .refine((b) => b.z === undefined || b.radialVelocityKms === undefined, { message: 'Send either z or radialVelocityKms, not both', path: ['z'] });

@@ -1,5 +1,6 @@
 import { z } from './zod';
 import { readerOptionsSchema } from './model';
+import { COATINGS } from '@/lib/engine/temperature';
 
 export const LINE_IDS = ['Ha', 'Hb', 'Hg', 'OIII', 'OIII-496', 'NII-658', 'NII-655', 'SII-671', 'SII-673', 'HeII', 'OI', 'ArIII', 'OII'] as const;
 export const INSTRUMENTS = ['spectrophotometer', 'spectrograph', 'monochromator', 'other'] as const;
@@ -17,6 +18,10 @@ export const methodSchema = z
     aoiDeg: z.number({ error: 'AOI must be a number' }).min(0, 'AOI cannot be negative').max(60, 'AOI above 60° is outside what we model'),
     temperatureC: z.number().min(-60).max(80).optional(),
     polarization: z.enum(['unpolarized', 's', 'p']).optional(),
+    // hard (sputtered), soft (evaporated) or unknown: sets the default temperature coefficient
+    coating: z.enum(COATINGS, { error: 'coating must be hard, soft or unknown' }).optional(),
+    // declared standard uncertainty of the wavelength scale; without it the quality check uses the instrument's default
+    wavelengthUncertaintyNm: z.number().positive('The wavelength uncertainty must be above 0').max(10).optional(),
     measuredOn: z.iso.date({ error: 'Use a date like 2026-03-14' }).optional(),
     lab: optionalText(200),
   })
@@ -38,7 +43,7 @@ export const submissionMetadataSchema = z.object({
   licence: z.enum(['CC-BY-4.0', 'CC0-1.0']).default('CC-BY-4.0'),
   method: methodSchema,
   // `reader` carries the overrides the contributor chose in the live preview, so the stored curve is the one they saw.
-  files: z.array(z.object({ name: z.string().min(1).max(255), aoiDeg: z.number({ error: 'AOI must be a number' }).min(0, 'AOI cannot be negative').max(60, 'AOI above 60° is outside what we model'), reader: readerOptionsSchema.optional() })).max(20).optional(),
+  files: z.array(z.object({ name: z.string().min(1).max(255), aoiDeg: z.number({ error: 'AOI must be a number' }).min(0, 'AOI cannot be negative').max(60, 'AOI above 60° is outside what we model'), reader: readerOptionsSchema.optional(), temperatureC: z.number().min(-60).max(80).optional() })).max(20).optional(),
 });
 
 export type SubmissionMetadata = z.output<typeof submissionMetadataSchema>;

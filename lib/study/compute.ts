@@ -15,6 +15,7 @@ import { angleHistogram, buildPupil, MAX_FIELD_ANGLE_DEG, type Pupil } from '@/l
 import type { AngleBin, ConeModelInput, CurvePoints, Optic, ShiftParams } from '@/lib/engine/types';
 import { explorerGrid, type ExplorerGrid, type ExplorerMarker } from './explorer';
 import type { CurveStudy, NeffSource, Series, StudyCurve, StudySettings } from './types';
+import { defaultTempCoeff } from '@/lib/engine/temperature';
 
 /** Used when neither the reader nor a fitted set gives an effective index (docs/model.md §Angle shift: mid-range of hard-coated narrowband filters). */
 export const DEFAULT_N_EFF = 2.0;
@@ -41,6 +42,19 @@ export function refTempFor(curve: StudyCurve, s: StudySettings): { value: number
 }
 
 /**
+ * The temperature coefficient a study applies: the typed one, else the one
+ * fitted from the unit's multi-temperature set, else the default for its
+ * declared coating (lib/engine/temperature.ts), else none. So an operating
+ * temperature alone moves a curve whose coating is known.
+ */
+export function tempCoeffFor(curve: StudyCurve, s: StudySettings): { value: number; source: 'typed' | 'fitted' | 'coating-default' } | null {
+  if (s.tempCoeffNmPerC != null) return { value: s.tempCoeffNmPerC, source: 'typed' };
+  if (curve.tempCoeffNmPerC != null && Number.isFinite(curve.tempCoeffNmPerC)) return { value: curve.tempCoeffNmPerC, source: 'fitted' };
+  const d = defaultTempCoeff(curve.coating ?? null);
+  return d ? { value: d.nmPerC, source: 'coating-default' } : null;
+}
+
+/**
  * The body of POST /api/model/cone for this curve and these settings, with the
  * curve's id when it has one (the route then reads the same points and AOI).
  */
@@ -54,14 +68,16 @@ export function coneRequestBody(curve: StudyCurve, s: StudySettings, fieldAngleD
   };
   body.nEff = nEffFor(curve, s).value;
   if (s.preShiftNm !== 0) body.preShiftNm = s.preShiftNm;
-  if (s.tempC != null && s.tempCoeffNmPerC != null) {
+  const k = s.tempC != null ? tempCoeffFor(curve, s) : null;
+  if (s.tempC != null && k) {
     body.tempC = s.tempC;
-    body.tempCoeffNmPerC = s.tempCoeffNmPerC;
+    body.tempCoeffNmPerC = k.value;
     body.refTempC = refTempFor(curve, s).value;
   }
   if ('id' in s.line) body.lines = [s.line.id];
   else body.lineNm = s.line.nm;
   if (s.radialVelocityKms !== 0) body.radialVelocityKms = s.radialVelocityKms;
+  if (curve.wavelengthUncertainty) body.wavelengthUncertaintyNm = curve.wavelengthUncertainty.nm;
   return body;
 }
 
@@ -160,6 +176,13 @@ export function studyCurve(curve: StudyCurve, s: StudySettings): CurveStudy {
 
   const fSweep = sweep(c, lineNm, fNumberGrid(), (N) => ({ fNumber: N, obstruction, mapping }), () => params);
   const fieldSweep = sweep(c, lineNm, fieldGrid(s.optic), (phi) => ({ fNumber, obstruction, mapping, fieldAngleDeg: phi }), () => params);
+  // error band of the f-number chart: the same sweep with the curve moved by ∓ its wavelength-scale uncertainty
+  const u = curve.wavelengthUncertainty?.nm ?? 0;
+  let fSweepRange: CurveStudy['fSweepRange'];
+  if (u > 0) {
+    const [a, b] = [-u, u].map((d) => sweep(c, lineNm, fSweep.x, (N) => ({ fNumber: N, obstruction, mapping }), () => ({ ...params, preShiftNm: (params.preShiftNm ?? 0) + d })).y);
+    fSweepRange = { low: fSweep.y.map((v, i) => Math.min(v, a[i], b[i])), high: fSweep.y.map((v, i) => Math.max(v, a[i], b[i])), uncertaintyNm: u };
+  }
 
   const sM = curve.aoiDeg > 0 ? angleScale(curve.aoiDeg, n.value) : 1;
   const { leftNm, rightNm } = halfMaximumEdges(c);
@@ -206,6 +229,7 @@ export function studyCurve(curve: StudyCurve, s: StudySettings): CurveStudy {
     edge,
     peakT: c.peak,
     fSweep,
+    ...(fSweepRange ? { fSweepRange } : {}),
     fieldSweep,
     shiftSweep,
     fwhm0Nm,

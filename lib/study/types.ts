@@ -21,6 +21,12 @@ export interface StudyCurve {
   nEff: number | null;
   /** The temperature recorded with the measurement, °C. */
   tempC: number | null;
+  /** Declared coating (sets the default dCWL/dT); absent for pasted curves. */
+  coating?: import('@/lib/engine/temperature').Coating | null;
+  /** dCWL/dT fitted from the unit measured at several temperatures, nm/°C. */
+  tempCoeffNmPerC?: number | null;
+  /** Wavelength-scale uncertainty, nm, and whether it was declared or is the instrument's default (error bars). */
+  wavelengthUncertainty?: { nm: number; declared: boolean } | null;
   cwlNm: number | null;
   fwhmNm: number | null;
   peakT: number;
@@ -81,6 +87,8 @@ export interface CurveStudy {
   peakT: number;
   /** Line throughput against f-number, f/1–f/10, on axis with this obstruction. */
   fSweep: Series;
+  /** Its lower and upper edge within the curve's wavelength-scale uncertainty (the error band). */
+  fSweepRange?: { low: number[]; high: number[]; uncertaintyNm: number };
   /** Line throughput against the chief-ray angle, centre to edge. */
   fieldSweep: Series;
   /** Line throughput against pre-shift over the searched range. */

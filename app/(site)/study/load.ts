@@ -3,6 +3,7 @@ import { db } from '@/db/models';
 import type { Actor } from '@/lib/auth/actor';
 import { loadReadableCurve, readableWhere } from '@/lib/catalogue/points';
 import type { StudyCurve } from '@/lib/study/types';
+import { wavelengthUncertaintyOf } from '@/lib/engine/quality';
 
 /**
  * The study's catalogue curves with their points, read on the server so the page
@@ -41,6 +42,9 @@ export async function loadStudyCurves(actor: Actor | null, ids: number[]): Promi
       aoiDeg: c.aoiDeg,
       nEff: c.nEff,
       tempC: typeof t === 'number' && Number.isFinite(t) ? t : null,
+      coating: ((c.method as { coating?: unknown })?.coating as StudyCurve['coating']) ?? null,
+      tempCoeffNmPerC: c.tempCoeffNmPerC ?? null,
+      wavelengthUncertainty: wavelengthUncertaintyOf(c.method),
       cwlNm: c.cwlNm,
       fwhmNm: c.fwhmNm,
       peakT: c.peakT,

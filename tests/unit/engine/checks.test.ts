@@ -93,6 +93,22 @@ describe('automatic checks', () => {
       expect(c.level).toBe('error');
       expect(c.message).toMatch(/blueward/);
     });
+    it('a fitted n_eff outside the coating materials\' indices becomes a moderator warning with its reason', () => {
+      // material indices from memory: MgF2 1.38 lowest; TiO2 about 2.4 highest in the visible; Si about 3.5 in the near IR
+      const physical = (set: { aoiDeg: number; metrics: ReturnType<typeof computeMetrics> }[]) => byCode(runChecks({ metrics: good, set }), 'set-neff-physical')[0];
+      expect(physical([at(0, 2.05), at(10, 2.05), at(20, 2.05)]).level).toBe('info');
+      expect(physical([at(0, 1.55), at(10, 1.55), at(20, 1.55)]).level).toBe('info');
+      const high = physical([at(0, 2.8), at(10, 2.8), at(20, 2.8)]);
+      expect(high.level).toBe('warn');
+      expect(high.message).toMatch(/above the highest coating index in the visible/);
+      const low = physical([at(0, 1.2), at(10, 1.2), at(20, 1.2)]);
+      expect(low.level).toBe('warn');
+      expect(low.message).toMatch(/below the lowest coating index/);
+      // in the near infrared a silicon-based stack may reach about 3.5
+      const nir = (n: number) => [0, 10, 20].map((a) => ({ aoiDeg: a, metrics: computeMetrics(multiCavity(predictCwl(1550, n, a), 5, 3)) }));
+      expect(physical(nir(3.2)).level).toBe('info');
+      expect(physical(nir(3.9)).level).toBe('warn');
+    });
     it('warns when the set has only one distinct angle', () => {
       expect(byCode(runChecks({ metrics: good, set: [at(5), at(5)] }), 'set-angles')[0].level).toBe('warn');
     });

@@ -168,3 +168,44 @@ describe('exports and requests', () => {
     });
   });
 });
+
+describe('operating against measurement temperature without a typed coefficient', () => {
+  const opt = { id: null, name: 'Typed optic', fNumber: 2.5, obstruction: 0.36, fieldAngleDeg: 0, mapping: 'tangent' as const };
+  it('a hard-coated curve measured at 20 °C, used at −10 °C, moves by the coating default 0.0035 nm/°C × −30 °C', () => {
+    const c = { ...flatTop(HA, 3), tempC: 20, coating: 'hard' as const };
+    const body = coneRequestBody(c, settings({ optic: opt, tempC: -10 }));
+    expect(body.tempCoeffNmPerC).toBe(0.0035);
+    expect(body.refTempC).toBe(20);
+    const study = studyCurve(c, settings({ optic: opt, tempC: -10 }));
+    expect(study.totalShiftNm).toBeCloseTo(0.0035 * -30, 12);
+  });
+  it('a fitted coefficient wins over the coating default; a typed one over both; unknown coating applies none', () => {
+    const c = { ...flatTop(HA, 3), tempC: 20, coating: 'soft' as const, tempCoeffNmPerC: 0.011 };
+    expect(coneRequestBody(c, settings({ optic: opt, tempC: 0 })).tempCoeffNmPerC).toBe(0.011);
+    expect(coneRequestBody(c, settings({ optic: opt, tempC: 0, tempCoeffNmPerC: 0.002 })).tempCoeffNmPerC).toBe(0.002);
+    expect(coneRequestBody({ ...flatTop(HA, 3), coating: 'unknown' }, settings({ optic: opt, tempC: 0 })).tempCoeffNmPerC).toBeUndefined();
+  });
+});
+
+describe('error bars in the study', () => {
+  it('a catalogue curve sends its wavelength uncertainty, gets a throughput range around the figure, and a straddle is found', async () => {
+    const { straddledMarks } = await import('@/lib/study/error-bar');
+    const c = { ...flatTop(HA - 1.2, 3), wavelengthUncertainty: { nm: 0.3, declared: false } };
+    const s = settings({ optic: { id: null, name: 'Typed optic', fNumber: 2.5, obstruction: 0.36, fieldAngleDeg: 0, mapping: 'tangent' } });
+    expect(coneRequestBody(c, s).wavelengthUncertaintyNm).toBe(0.3);
+    const st = studyCurve(c, s);
+    const [lo, hi] = st.onAxis.lines[0].throughputRange!;
+    expect(lo).toBeLessThanOrEqual(st.onAxis.lines[0].throughput);
+    expect(hi).toBeGreaterThanOrEqual(st.onAxis.lines[0].throughput);
+    // the f-number chart's band holds the curve at every f-number and opens where the line sits on an edge
+    const band = st.fSweepRange!;
+    st.fSweep.y.forEach((v, i) => {
+      expect(band.low[i]).toBeLessThanOrEqual(v);
+      expect(band.high[i]).toBeGreaterThanOrEqual(v);
+    });
+    expect(Math.max(...band.high.map((h, i) => h - band.low[i]))).toBeGreaterThan(0.01);
+    expect(straddledMarks([0.75, 0.85])).toEqual([0.8]);
+    expect(straddledMarks([0.4, 0.9])).toEqual([0.8, 0.5]);
+    expect(straddledMarks([0.81, 0.9])).toEqual([]);
+  });
+});

@@ -8,6 +8,9 @@ import { CurvesTable, DeclaredFacts, FilesTable } from '@/components/review/subm
 import { SubmissionChart } from '@/components/review/submission-chart';
 import { Thread } from '@/components/review/thread';
 import { DecisionForm } from '@/components/review/decision-form';
+import { QualityList } from '@/components/review/quality-list';
+import { assessCurveQuality } from '@/lib/engine/quality';
+import { DEFAULT_N_EFF } from '@/lib/catalogue/fitness-grid';
 
 export const metadata: Metadata = { title: 'Review' };
 
@@ -37,6 +40,16 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
           <section aria-labelledby="checks-heading" className="space-y-2">
             <h2 id="checks-heading" className="text-lg font-semibold">Automatic checks</h2>
             <div className="rounded-card border border-rule bg-panel p-4"><CheckList checks={s.checks} /></div>
+          </section>
+          <section aria-labelledby="quality-heading" className="space-y-2" data-testid="review-quality">
+            <h2 id="quality-heading" className="text-lg font-semibold">Measurement quality</h2>
+            <div className="space-y-3 rounded-card border border-rule bg-panel p-4">
+              {s.points.map((p) => {
+                const nEff = s.curves.find((c) => c.id === p.id)?.nEff ?? DEFAULT_N_EFF;
+                const items = assessCurveQuality(p, (s.metadata.method ?? {}) as Record<string, unknown>, nEff);
+                return <QualityList key={p.id} items={items} file={s.points.length > 1 ? `${p.aoiDeg}°` : undefined} />;
+              })}
+            </div>
           </section>
           <section aria-labelledby="numbers-heading" className="space-y-2">
             <h2 id="numbers-heading" className="text-lg font-semibold">Derived numbers</h2>

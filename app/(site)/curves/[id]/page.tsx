@@ -16,6 +16,9 @@ import { CurveChart } from '@/components/catalogue/curve-chart';
 import { AddToCompare, CopyText } from '@/components/catalogue/curve-actions';
 import { SolarCaution } from '@/components/catalogue/solar-caution';
 import { INSTRUMENT_NAMES } from '@/components/catalogue/labels';
+import { QualityList } from '@/components/review/quality-list';
+import { assessCurveQuality } from '@/lib/engine/quality';
+import { COATING_NAMES, defaultTempCoeff, type Coating } from '@/lib/engine/temperature';
 
 type Props = { params: Promise<{ id: string }> };
 
@@ -70,6 +73,16 @@ function methodRows(d: CurveDetail) {
     ['Angle of incidence', formatDeg(d.aoiDeg)],
     ['Temperature', m.temperatureC !== undefined ? `${fixed(Number(m.temperatureC), 1)} °C` : '—'],
     ['Polarisation', m.polarization ? String(m.polarization) : '—'],
+    ['Coating', COATING_NAMES[(m.coating as Coating | undefined) ?? 'unknown'] ?? '—'],
+    [
+      'Temperature drift',
+      d.derived.tempCoeffNmPerC !== null
+        ? `${fixed(d.derived.tempCoeffNmPerC, 4)} nm/°C (fitted)`
+        : defaultTempCoeff(m.coating as Coating | undefined)
+          ? `${defaultTempCoeff(m.coating as Coating)!.nmPerC} nm/°C (default for the coating)`
+          : '—',
+    ],
+    ['Wavelength-scale uncertainty', m.wavelengthUncertaintyNm !== undefined ? `± ${formatNm(Number(m.wavelengthUncertaintyNm), 2)}` : 'not declared'],
     ['Measured on', d.measuredOn ?? '—'],
     ['Where', d.lab ?? '—'],
   ];
@@ -84,6 +97,12 @@ export default async function CurvePage({ params }: Props) {
   const solar = d.lines.some((l) => l.id === 'Ha');
   const nominal = d.nominal.cwlNm && d.nominal.fwhmNm ? { cwlNm: d.nominal.cwlNm, fwhmNm: d.nominal.fwhmNm } : null;
   const contributorHref = `/curves?contributor=${d.contributor.id}`;
+  const quality = assessCurveQuality(
+    points,
+    d.method,
+    d.derived.nEff ?? DEFAULT_N_EFF,
+    d.derived.tempCoeffNmPerC ?? defaultTempCoeff(d.method.coating as Coating | undefined)?.nmPerC,
+  );
 
   return (
     <article className="space-y-5" data-testid="curve-page">
@@ -115,6 +134,14 @@ export default async function CurvePage({ params }: Props) {
             ·{' '}
             <a href={d.links.json} className="text-accent underline-offset-4 hover:underline" download>
               JSON
+            </a>{' '}
+            ·{' '}
+            <a href={d.links.jcamp} className="text-accent underline-offset-4 hover:underline" data-testid="download-jcamp" download title="JCAMP-DX 4.24, for lab spectroscopy software">
+              JCAMP-DX
+            </a>{' '}
+            ·{' '}
+            <a href={d.links.votable} className="text-accent underline-offset-4 hover:underline" data-testid="download-votable" download title="IVOA VOTable 1.4, for astropy and TOPCAT">
+              VOTable
             </a>
           </span>
         </div>
@@ -190,6 +217,13 @@ export default async function CurvePage({ params }: Props) {
             </div>
           ) : null}
           {d.notes ? <p className="mt-3 whitespace-pre-line text-sm text-muted">{d.notes}</p> : null}
+        </Card>
+
+        <Card title="Measurement quality">
+          <div data-testid="curve-quality">
+            <QualityList items={quality} />
+          </div>
+          <p className="mt-2 text-xs text-muted">Judged from the declared method; a default stands in for anything not declared and says so.</p>
         </Card>
 
         <Card title="Provenance">
@@ -280,9 +314,20 @@ export default async function CurvePage({ params }: Props) {
           <p className="text-sm" data-testid="citation">
             {d.citation}
           </p>
-          <div className="mt-2">
+          <div className="mt-2 flex flex-wrap items-center gap-3 text-sm">
             <CopyText text={d.citation} label="Copy citation" />
+            <a href={d.links.bibtex} className="text-accent underline-offset-4 hover:underline" data-testid="cite-bibtex">
+              BibTeX
+            </a>
+            <a href={d.links.csl} className="text-accent underline-offset-4 hover:underline" data-testid="cite-csl">
+              CSL-JSON
+            </a>
           </div>
+          <p className="mt-2 text-xs text-muted" data-testid="cite-permanence">
+            {d.status === 'verified' || d.status === 'superseded'
+              ? `Revision ${d.revision} is fixed: its points, raw-file hash, method, derived numbers, licence and attribution never change. A correction becomes a new revision at its own address, so this citation keeps pointing at these numbers.`
+              : 'Not yet verified: this curve may still change, so cite it only once a moderator has verified it.'}
+          </p>
         </Card>
       </div>
     </article>
