@@ -1,8 +1,13 @@
 /**
- * Turns an uploaded data file into a clean curve (MODEL.md §1) and says what it
- * assumed. Lab files come in every layout, so the reader guesses delimiter,
- * decimal mark, header block, columns and units, and lets the caller override
- * each guess. Every refusal names the line of the original file.
+ * Turns an uploaded data file into a clean curve (docs/model.md §1) and says
+ * what it assumed. Lab files come in every layout, so the reader guesses
+ * delimiter, decimal mark, header block, columns and units, and lets the caller
+ * override each guess. Every refusal names the line of the original file.
+ *
+ * Anyone may upload, so every step is linear in the size of the file: numbers
+ * and fields are scanned by hand (no regular expression runs on user text),
+ * rows have at most MAX_COLUMNS fields, a number at most MAX_NUMBER_CHARS
+ * characters, and the layout is sniffed on a bounded prefix.
  */
 
 import Papa from 'papaparse';
@@ -10,8 +15,9 @@ import { MAX_PLAUSIBLE_T, MIN_POINTS, NEGATIVE_NOISE_FLOOR, sortAndCollapse } fr
 import { CurveReadError, EngineInputError, type LineDetail } from './errors';
 import type { CurvePoints } from './types';
 
-export const MAX_FILE_BYTES = 5 * 1024 * 1024;
-export const MAX_ROWS = 200_000;
+import { MAX_COLUMNS, MAX_FILE_BYTES, MAX_LINES, MAX_NUMBER_CHARS, MAX_ROWS } from './reader-limits';
+
+export { MAX_COLUMNS, MAX_FILE_BYTES, MAX_LINES, MAX_NUMBER_CHARS, MAX_ROWS };
 
 export type WavelengthUnit = 'nm' | 'angstrom' | 'um';
 export type TransmissionUnit = 'fraction' | 'percent' | 'od';
@@ -51,21 +57,39 @@ export interface ReadResult {
 
 const MAX_DETAILS = 20;
 const SNIFF_LINES = 200;
+/**
+ * The layout is guessed from a bounded prefix: at most SNIFF_LINES rows, each
+ * cut to SNIFF_LINE_CHARS (a row of MAX_COLUMNS numbers of MAX_NUMBER_CHARS
+ * fits), and at most SNIFF_CHARS characters in all.
+ */
+const SNIFF_LINE_CHARS = 8 * 1024;
+const SNIFF_CHARS = 1024 * 1024;
 const SAMPLE_ROWS = 1000;
 
-const NUM_COMMA = /^[+-]?(?:\d+,?\d*|,\d+)(?:[eE][+-]?\d+)?$/;
+function isSpace(c: number): boolean {
+  return c <= 32 || c === 0xa0 || c === 0xfeff;
+}
 
 /**
- * Whether a field is a plain decimal number (optional sign, digits with an
- * optional point, optional exponent; spaces around allowed). Hand-scanned
- * because it runs on every value of a file of up to 200 000 rows; Number()
- * alone would also accept "", "0x1F" and "Infinity".
+ * A plain decimal number: optional sign, digits with an optional decimal mark
+ * (at least one digit in all), optional exponent; spaces around allowed.
+ *
+ *   number = space* [+-]? (digit+ (mark digit*)? | mark digit+) ([eE] [+-]? digit+)? space*
+ *
+ * One pass over the field, so its cost is linear in the field's length whatever
+ * the text (the pattern this replaces backtracked on long digit runs), and
+ * fields over MAX_NUMBER_CHARS are not numbers at all. Number() alone would
+ * also accept "", "0x1F" and "Infinity". Returns NaN when the field is not a
+ * number; the value is Number() of the decimal written with a point.
  */
-function isPlainNumber(s: string): boolean {
+export function scanNumber(s: string, mark: DecimalSeparator = '.'): number {
   let i = 0;
   let to = s.length;
-  while (i < to && s.charCodeAt(i) <= 32) i++;
-  while (to > i && s.charCodeAt(to - 1) <= 32) to--;
+  while (i < to && isSpace(s.charCodeAt(i))) i++;
+  while (to > i && isSpace(s.charCodeAt(to - 1))) to--;
+  if (to - i > MAX_NUMBER_CHARS || to === i) return NaN;
+  const from = i;
+  const markCode = mark.charCodeAt(0);
   let c = s.charCodeAt(i);
   if (c === 43 || c === 45) i++;
   let digits = 0;
@@ -73,49 +97,96 @@ function isPlainNumber(s: string): boolean {
     i++;
     digits++;
   }
-  if (i < to && s.charCodeAt(i) === 46) {
+  let markAt = -1;
+  if (i < to && s.charCodeAt(i) === markCode) {
+    markAt = i;
     i++;
     while (i < to && (c = s.charCodeAt(i)) >= 48 && c <= 57) {
       i++;
       digits++;
     }
   }
-  if (digits === 0) return false;
+  if (digits === 0) return NaN;
   if (i < to && ((c = s.charCodeAt(i)) === 101 || c === 69)) {
     i++;
     c = s.charCodeAt(i);
-    if (c === 43 || c === 45) i++;
+    if (i < to && (c === 43 || c === 45)) i++;
     let exp = 0;
     while (i < to && (c = s.charCodeAt(i)) >= 48 && c <= 57) {
       i++;
       exp++;
     }
-    if (exp === 0) return false;
+    if (exp === 0) return NaN;
   }
-  return i === to;
+  if (i !== to) return NaN;
+  if (markAt < 0 || markCode === 46) return Number(s.slice(from, to));
+  return Number(`${s.slice(from, markAt)}.${s.slice(markAt + 1, to)}`);
 }
 
 function parseNumber(field: string, decimal: DecimalSeparator): number {
-  if (decimal === '.') return isPlainNumber(field) ? Number(field) : NaN;
-  const f = field.trim();
-  return NUM_COMMA.test(f) ? Number(f.replace(',', '.')) : NaN;
+  return scanNumber(field, decimal);
+}
+
+/** A field longer than a number may be, made only of characters numbers are written with. */
+function isOverlongNumber(field: string): boolean {
+  const t = field.trim();
+  if (t.length <= MAX_NUMBER_CHARS) return false;
+  for (let i = 0; i < t.length; i++) {
+    const c = t.charCodeAt(i);
+    if (!((c >= 48 && c <= 57) || c === 43 || c === 45 || c === 46 || c === 44 || c === 101 || c === 69)) return false;
+  }
+  return true;
+}
+
+function overlongMessage(field: string): string {
+  return `a value of ${field.trim().length.toLocaleString('en-US')} characters is longer than the ${MAX_NUMBER_CHARS} a number may have`;
 }
 
 function unquote(s: string): string {
   const t = s.trim();
-  return t.length >= 2 && t[0] === '"' && t[t.length - 1] === '"' ? t.slice(1, -1).replace(/""/g, '"') : t;
+  return t.length >= 2 && t[0] === '"' && t[t.length - 1] === '"' ? t.slice(1, -1).replaceAll('""', '"') : t;
+}
+
+/** Whitespace-separated fields, at most `limit` of them (scanned by hand). */
+function splitWhitespace(line: string, limit: number): string[] {
+  const out: string[] = [];
+  let i = 0;
+  const n = line.length;
+  while (out.length < limit) {
+    while (i < n && isSpace(line.charCodeAt(i))) i++;
+    if (i >= n) break;
+    const from = i;
+    while (i < n && !isSpace(line.charCodeAt(i))) i++;
+    out.push(line.slice(from, i));
+  }
+  return out;
+}
+
+/** Fields split at a one-character delimiter, at most `limit` of them. */
+function splitAt(line: string, delimiter: string, limit: number): string[] {
+  const out: string[] = [];
+  let from = 0;
+  while (out.length < limit) {
+    const to = line.indexOf(delimiter, from);
+    if (to < 0) {
+      out.push(line.slice(from));
+      break;
+    }
+    out.push(line.slice(from, to));
+    from = to + 1;
+  }
+  return out;
 }
 
 /**
- * Fields of one line. Quotes around whole fields are stripped directly; a
- * delimiter inside quotes sends the line through papaparse's CSV rules.
+ * Fields of one line, at most MAX_COLUMNS + 1 of them (more than MAX_COLUMNS
+ * means the row is too wide). Quotes around whole fields are stripped
+ * directly; a delimiter inside quotes sends the line through papaparse's CSV
+ * rules.
  */
-function splitLine(line: string, delimiter: Delimiter): string[] {
-  if (delimiter === 'whitespace') {
-    const t = line.trim();
-    return t === '' ? [] : t.split(/\s+/);
-  }
-  const parts = line.split(delimiter);
+function splitLine(line: string, delimiter: Delimiter, limit = MAX_COLUMNS + 1): string[] {
+  if (delimiter === 'whitespace') return splitWhitespace(line, limit);
+  const parts = splitAt(line, delimiter, limit);
   if (!line.includes('"')) return parts;
   let simple = true;
   for (const p of parts) {
@@ -128,7 +199,51 @@ function splitLine(line: string, delimiter: Delimiter): string[] {
   if (simple) return parts.map(unquote);
   const r = Papa.parse<string[]>(line, { delimiter, quoteChar: '"', skipEmptyLines: false });
   const row = r.data[0];
-  return Array.isArray(row) ? row.map((f) => f.trim()) : parts.map(unquote);
+  return Array.isArray(row) ? row.slice(0, limit).map((f) => f.trim()) : parts.map(unquote);
+}
+
+/** The first line (after `from`) holding a field that looks like a number but is too long to be one. */
+function firstOverlongNumber(lines: string[], from: number, delimiter: Delimiter): LineDetail | null {
+  for (let i = from; i < lines.length; i++) {
+    if (lines[i].length <= MAX_NUMBER_CHARS || isSkippable(lines[i])) continue;
+    for (const f of splitLine(lines[i], delimiter)) if (isOverlongNumber(f)) return { line: i + 1, message: overlongMessage(f) };
+  }
+  return null;
+}
+
+function tooManyColumns(line: number): LineDetail {
+  return { line, message: `the row has more than ${MAX_COLUMNS} columns; a curve file may have at most ${MAX_COLUMNS}` };
+}
+
+/** Whether a line holds a digit (scanned by hand). */
+function hasDigit(line: string): boolean {
+  for (let i = 0; i < line.length; i++) {
+    const c = line.charCodeAt(i);
+    if (c >= 48 && c <= 57) return true;
+  }
+  return false;
+}
+
+/** Splits text at CRLF, CR or LF; more than MAX_LINES lines is refused (413). */
+function splitLines(text: string): string[] {
+  const lines: string[] = [];
+  let from = 0;
+  const n = text.length;
+  for (let i = 0; i < n; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 10 || c === 13) {
+      if (lines.length >= MAX_LINES) {
+        throw new CurveReadError(`The file has more than ${MAX_LINES.toLocaleString('en-US')} lines.`, [
+          { line: MAX_LINES + 1, message: `line limit of ${MAX_LINES} reached` },
+        ], 413);
+      }
+      lines.push(text.slice(from, i));
+      if (c === 13 && text.charCodeAt(i + 1) === 10) i++;
+      from = i + 1;
+    }
+  }
+  lines.push(text.slice(from));
+  return lines;
 }
 
 /** Blank lines and `#` or `//` comments carry no data (scanned by hand: this runs per row). */
@@ -156,6 +271,12 @@ function utf8Length(s: string): number {
   return n;
 }
 
+function lineOfIndex(text: string, index: number): number {
+  let line = 1;
+  for (let i = text.indexOf('\n'); i >= 0 && i < index; i = text.indexOf('\n', i + 1)) line++;
+  return line;
+}
+
 function lineOfOffset(bytes: Uint8Array, offset: number): number {
   let line = 1;
   for (let i = 0; i < offset; i++) if (bytes[i] === 0x0a) line++;
@@ -173,7 +294,7 @@ function decode(input: string | Uint8Array): string {
   if (typeof input === 'string') {
     if (utf8Length(input) > MAX_FILE_BYTES) throw tooLarge();
     const nul = input.indexOf('\u0000');
-    if (nul >= 0) throw binaryError(input.slice(0, nul).split('\n').length);
+    if (nul >= 0) throw binaryError(lineOfIndex(input, nul));
     return input.charCodeAt(0) === 0xfeff ? input.slice(1) : input;
   }
   if (input.length > MAX_FILE_BYTES) throw tooLarge();
@@ -224,18 +345,27 @@ const LAYOUTS: Layout[] = [
 interface RowShape {
   numeric: number;
   nonEmpty: number;
+  /** More than MAX_COLUMNS fields (only the first MAX_COLUMNS are counted). */
+  wide: boolean;
+}
+
+function isBlank(f: string): boolean {
+  for (let i = 0; i < f.length; i++) if (!isSpace(f.charCodeAt(i))) return false;
+  return true;
 }
 
 function shapeOf(line: string, layout: Layout): RowShape {
   const fields = splitLine(line, layout.delimiter);
+  const wide = fields.length > MAX_COLUMNS;
   let numeric = 0;
   let nonEmpty = 0;
-  for (const f of fields) {
-    if (f.trim() === '') continue;
+  for (let k = 0; k < Math.min(fields.length, MAX_COLUMNS); k++) {
+    const f = fields[k];
+    if (isBlank(f)) continue;
     nonEmpty++;
     if (!Number.isNaN(parseNumber(f, layout.decimal))) numeric++;
   }
-  return { numeric, nonEmpty };
+  return { numeric, nonEmpty, wide };
 }
 
 function isDataShape(s: RowShape): boolean {
@@ -255,7 +385,12 @@ function sniffLayout(lines: string[], from: number, options: ReadOptions): Layou
     ]);
   }
   const sample: string[] = [];
-  for (let i = from; i < lines.length && sample.length < SNIFF_LINES; i++) if (!isSkippable(lines[i])) sample.push(lines[i]);
+  let budget = SNIFF_CHARS;
+  for (let i = from; i < lines.length && sample.length < SNIFF_LINES && budget > 0; i++) {
+    const line = lines[i].length > SNIFF_LINE_CHARS ? lines[i].slice(0, SNIFF_LINE_CHARS) : lines[i];
+    budget -= line.length + 1;
+    if (!isSkippable(line)) sample.push(line);
+  }
   let best = candidates[0];
   let bestScore = -1;
   for (const layout of candidates) {
@@ -291,6 +426,7 @@ function findDataStart(lines: string[], from: number, layout: Layout): number {
       if (isSkippable(lines[i])) continue;
       const s0 = shapeOf(lines[i], layout);
       if (!isDataShape(s0) || (strict && s0.numeric !== s0.nonEmpty)) continue;
+      if (s0.wide) fail([tooManyColumns(i + 1)]);
       let looked = 0;
       let good = 0;
       for (let j = next(i); looked < 3 && j < lines.length; j = next(j)) {
@@ -308,6 +444,7 @@ function findDataStart(lines: string[], from: number, layout: Layout): number {
   // rows just above that begin with a number and have as many fields are data
   // with a bad value, not preamble: keep them so the bad value is reported
   const width = splitLine(lines[start], layout.delimiter).length;
+  if (width > MAX_COLUMNS) fail([tooManyColumns(start + 1)]);
   let first = start;
   for (let i = start - 1; i >= from; i--) {
     if (isSkippable(lines[i])) continue;
@@ -324,25 +461,88 @@ interface HeaderInfo {
   text: string[];
 }
 
-const WL_HINT = /wave|lambda|λ|(^|[^a-z])(wl|nm|um|µm|μm|å|angstroms?|ångströms?|microns?)([^a-z]|$)/;
-const T_HINT = /trans|%|(^|[^a-z])(t|od|abs|tau|optical density|absorbance)([^a-z]|$)|sample|signal/;
+function isLetter(c: number): boolean {
+  return c >= 97 && c <= 122;
+}
+
+/**
+ * Whether lower-cased header text holds one of `words` standing alone, i.e. with
+ * no letter a–z touching it on either side ("nm" in "λ (nm)", not in "nmr").
+ * Found with indexOf rather than a pattern so header text costs linear time.
+ */
+function hasWord(h: string, words: readonly string[]): boolean {
+  for (const w of words) {
+    for (let at = h.indexOf(w); at >= 0; at = h.indexOf(w, at + 1)) {
+      if ((at === 0 || !isLetter(h.charCodeAt(at - 1))) && !isLetter(h.charCodeAt(at + w.length))) return true;
+    }
+  }
+  return false;
+}
+
+function hasPart(h: string, parts: readonly string[]): boolean {
+  return parts.some((p) => h.includes(p));
+}
+
+function isWavelengthHint(h: string): boolean {
+  return hasPart(h, ['wave', 'lambda', 'λ']) || hasWord(h, ['wl', 'nm', 'um', 'µm', 'μm', 'å', 'angstrom', 'angstroms', 'ångström', 'ångströms', 'micron', 'microns']);
+}
+
+function isTransmissionHint(h: string): boolean {
+  return hasPart(h, ['trans', '%', 'sample', 'signal']) || hasWord(h, ['t', 'od', 'abs', 'tau', 'optical density', 'absorbance']);
+}
 
 /** Whitespace headers keep "(nm)" or "[%]" with the name before them. */
 function splitHeaderCells(body: string, delimiter: Delimiter, ncols: number): string[] {
   if (delimiter !== 'whitespace') return splitLine(body, delimiter).map((f) => f.trim());
   const plain = splitLine(body, delimiter);
   if (plain.length === ncols) return plain;
-  const wide = body.trim().split(/\s{2,}|\t/);
+  const wide = splitWide(body.trim(), ncols + 1);
   if (wide.length === ncols) return wide;
   const merged: string[] = [];
   for (const tok of plain) {
-    if (merged.length > 0 && /^[([]/.test(tok)) merged[merged.length - 1] += ` ${tok}`;
+    if (merged.length > 0 && (tok[0] === '(' || tok[0] === '[')) merged[merged.length - 1] += ` ${tok}`;
     else merged.push(tok);
   }
   return merged;
 }
 
-const UNIT_ROW = /^[[(]?\s*(nm|å|a|um|µm|μm|%|od|t|fraction|abs|a\.u\.|au|-)?\s*[\])]?$/i;
+/** Cells parted by a tab or by two or more spaces (one space stays inside a name). */
+function splitWide(t: string, limit: number): string[] {
+  const out: string[] = [];
+  let from = 0;
+  let i = 0;
+  while (i < t.length && out.length < limit) {
+    const c = t.charCodeAt(i);
+    if (c === 9 || (isSpace(c) && i + 1 < t.length && isSpace(t.charCodeAt(i + 1)))) {
+      out.push(t.slice(from, i));
+      while (i < t.length && isSpace(t.charCodeAt(i))) i++;
+      from = i;
+    } else i++;
+  }
+  if (out.length < limit) out.push(t.slice(from));
+  return out;
+}
+
+const UNIT_WORDS = new Set(['', 'nm', 'å', 'a', 'um', 'µm', 'μm', '%', 'od', 't', 'fraction', 'abs', 'a.u.', 'au', '-']);
+
+/** A cell that is only a unit, perhaps in brackets: "nm", "(%)", "[a.u.]", "-". */
+function isUnitCell(cell: string): boolean {
+  let t = cell.trim();
+  if (t[0] === '(' || t[0] === '[') t = t.slice(1);
+  const last = t[t.length - 1];
+  if (last === ')' || last === ']') t = t.slice(0, -1);
+  return UNIT_WORDS.has(t.trim().toLowerCase());
+}
+
+/** A comment line's text after its leading # marks or //. */
+function commentBody(line: string): string {
+  let i = 0;
+  while (i < line.length && isSpace(line.charCodeAt(i))) i++;
+  if (line.charCodeAt(i) === 0x2f) i += 2;
+  else while (line.charCodeAt(i) === 0x23) i++;
+  while (i < line.length && isSpace(line.charCodeAt(i))) i++;
+  return line.slice(i);
+}
 
 /**
  * Column names come from the text row just above the data, with a unit row
@@ -359,10 +559,10 @@ function readHeader(lines: string[], dataStart: number, layout: Layout, ncols: n
     }
     const comment = isSkippable(line);
     if (comment && rows.length > 0) break;
-    const body = comment ? line.trimStart().replace(/^(#+|\/\/)\s*/, '') : line;
+    const body = comment ? commentBody(line) : line;
     const cells = splitHeaderCells(body, layout.delimiter, ncols);
     while (cells.length > ncols && cells[cells.length - 1] === '') cells.pop();
-    const named = cells.some((c) => WL_HINT.test(c.toLowerCase()) || T_HINT.test(c.toLowerCase()));
+    const named = cells.some((c) => isWavelengthHint(c.toLowerCase()) || isTransmissionHint(c.toLowerCase()));
     if (cells.length !== ncols || (comment && !named)) {
       if (comment) continue;
       break;
@@ -371,7 +571,7 @@ function readHeader(lines: string[], dataStart: number, layout: Layout, ncols: n
     if (comment) break;
   }
   let nameRow = rows[rows.length - 1];
-  if (rows.length === 2 && rows[1].every((c) => UNIT_ROW.test(c.trim()))) nameRow = rows[0];
+  if (rows.length === 2 && rows[1].every(isUnitCell)) nameRow = rows[0];
   const names: string[] = [];
   const text: string[] = [];
   for (let c = 0; c < ncols; c++) {
@@ -382,16 +582,34 @@ function readHeader(lines: string[], dataStart: number, layout: Layout, ncols: n
 }
 
 function wavelengthUnitFromHeader(h: string): WavelengthUnit | null {
-  if (/(^|[^a-z])(um|µm|μm|microns?|micrometers?|micrometres?)([^a-z]|$)/.test(h)) return 'um';
-  if (/(^|[^a-z])(a|å|angstroms?|ångströms?)([^a-z]|$)|ångström|angstrom/.test(h)) return 'angstrom';
-  if (/(^|[^a-z])nm([^a-z]|$)|nanomet/.test(h)) return 'nm';
+  if (hasWord(h, ['um', 'µm', 'μm', 'micron', 'microns', 'micrometer', 'micrometers', 'micrometre', 'micrometres'])) return 'um';
+  if (hasWord(h, ['a', 'å']) || hasPart(h, ['ångström', 'angstrom'])) return 'angstrom';
+  if (hasWord(h, ['nm']) || h.includes('nanomet')) return 'nm';
   return null;
 }
 
+function isDigit(c: number): boolean {
+  return c >= 48 && c <= 57;
+}
+
+/** "0-1", "0 – 1" or "0…1" standing apart from other digits. */
+function hasZeroToOne(h: string): boolean {
+  for (let at = h.indexOf('0'); at >= 0; at = h.indexOf('0', at + 1)) {
+    if (at > 0 && isDigit(h.charCodeAt(at - 1))) continue;
+    let i = at + 1;
+    while (i < h.length && isSpace(h.charCodeAt(i))) i++;
+    if (h[i] !== '-' && h[i] !== '–' && h[i] !== '…') continue;
+    i++;
+    while (i < h.length && isSpace(h.charCodeAt(i))) i++;
+    if (h[i] === '1' && !isDigit(h.charCodeAt(i + 1))) return true;
+  }
+  return false;
+}
+
 function transmissionUnitFromHeader(h: string): TransmissionUnit | null {
-  if (/%|percent|(^|[^a-z])pct([^a-z]|$)/.test(h)) return 'percent';
-  if (/(^|[^a-z])(od|o\.d\.|abs)([^a-z]|$)|optical density|absorbance/.test(h)) return 'od';
-  if (/fraction|(^|[^0-9])0\s*[-–…]\s*1([^0-9]|$)/.test(h)) return 'fraction';
+  if (hasPart(h, ['%', 'percent']) || hasWord(h, ['pct'])) return 'percent';
+  if (hasWord(h, ['od', 'o.d.', 'abs']) || hasPart(h, ['optical density', 'absorbance'])) return 'od';
+  if (h.includes('fraction') || hasZeroToOne(h)) return 'fraction';
   return null;
 }
 
@@ -447,9 +665,8 @@ function chooseColumns(
     n++;
   }
   const stats = cols.map(columnStats);
-  const hinted = (re: RegExp) => header.text.map((t) => re.test(t));
-  const wlHint = hinted(WL_HINT);
-  const tHint = hinted(T_HINT);
+  const wlHint = header.text.map(isWavelengthHint);
+  const tHint = header.text.map(isTransmissionHint);
 
   let wc = options.wavelengthColumn ?? -1;
   if (wc < 0) {
@@ -493,7 +710,7 @@ function validateOptions(o: ReadOptions, lineCount: number): void {
   }
   for (const f of ['wavelengthColumn', 'transmissionColumn'] as const) {
     const v = o[f];
-    if (v !== undefined && (!Number.isInteger(v) || v < 0)) bad(f, `${f} must be a 0-based column index`);
+    if (v !== undefined && (!Number.isInteger(v) || v < 0 || v >= MAX_COLUMNS)) bad(f, `${f} must be a 0-based column index from 0 to ${MAX_COLUMNS - 1}`);
   }
   if (o.wavelengthColumn !== undefined && o.wavelengthColumn === o.transmissionColumn) {
     bad('transmissionColumn', 'wavelength and transmission must be different columns');
@@ -520,7 +737,7 @@ function toArray(a: Float64Array): number[] {
 export function readCurveText(input: string | Uint8Array, options: ReadOptions = {}): ReadResult {
   const text = decode(input);
   checkPrintable(text);
-  const lines = text.split(/\r\n|\r|\n/);
+  const lines = splitLines(text);
   if (lines.length > 0 && lines[lines.length - 1] === '') lines.pop();
   validateOptions(options, lines.length);
   const warnings: string[] = [];
@@ -535,6 +752,8 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
     dataStart = findDataStart(lines, from, layout);
   }
   if (dataStart < 0) {
+    const overlong = firstOverlongNumber(lines, from, layout.delimiter);
+    if (overlong) fail([overlong]);
     const single = lines.findIndex((l) => !isSkippable(l) && !Number.isNaN(parseNumber(l, layout.decimal)));
     if (single >= 0) {
       fail([{ line: single + 1, message: 'only one column of numbers was found; a curve needs a wavelength column and a transmission column' }]);
@@ -553,6 +772,7 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
   let ncols = 0;
   let bestCount = -1;
   for (const [k, v] of counts) if (v > bestCount || (v === bestCount && k > ncols)) [ncols, bestCount] = [k, v];
+  if (ncols > MAX_COLUMNS) fail([tooManyColumns(dataStart + 1)]);
   if (ncols < 2) {
     fail([{ line: dataStart + 1, message: 'only one column of numbers was found; a curve needs a wavelength column and a transmission column' }]);
   }
@@ -594,9 +814,9 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
     let ft = '';
     let seen = 0;
     if (plain && line.indexOf('"') < 0) {
-      // walk to the two wanted fields without splitting the whole row
+      // walk the row once, keeping the two wanted fields and counting the rest
       let from = 0;
-      while (seen <= need) {
+      while (seen <= MAX_COLUMNS) {
         let to = line.indexOf(delimiter, from);
         if (to < 0) to = line.length;
         if (seen === wc) fw = line.slice(from, to);
@@ -613,11 +833,16 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
         ft = f[tc];
       }
     }
+    if (seen > MAX_COLUMNS) {
+      errors.push(tooManyColumns(i + 1));
+      if (errors.length >= MAX_DETAILS) break;
+      continue;
+    }
     if (seen <= need) {
       const found = splitLine(line, delimiter).filter((f) => f.trim() !== '').length;
       errors.push({
         line: i + 1,
-        message: /\d/.test(line)
+        message: hasDigit(line)
           ? `expected at least ${need + 1} values but found ${found}`
           : `"${line.trim().slice(0, 40)}" is not a row of numbers (comment it out with #)`,
       });
@@ -628,7 +853,8 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
     const t = parseNumber(ft, decimal);
     if (Number.isNaN(w) || Number.isNaN(t)) {
       const badField = Number.isNaN(w) ? fw : ft;
-      errors.push({ line: i + 1, message: `"${badField.trim().slice(0, 40)}" is not a readable number` });
+      const message = badField.trim().length > MAX_NUMBER_CHARS ? overlongMessage(badField) : `"${badField.trim().slice(0, 40)}" is not a readable number`;
+      errors.push({ line: i + 1, message });
       if (errors.length >= MAX_DETAILS) break;
       continue;
     }
