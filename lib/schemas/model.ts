@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { MAX_COLUMNS } from '@/lib/engine/reader-limits';
+import { MAX_COLUMNS } from '@/lib/engine/reader/limits';
 
 const finite = (what: string) => z.number({ error: `${what} must be a number` }).refine(Number.isFinite, `${what} must be finite`);
 
