@@ -50,6 +50,8 @@ export const readerOptionsSchema = z
     delimiter: z.enum([',', ';', '\t', 'whitespace']).optional(),
     decimalSeparator: z.enum(['.', ',']).optional(),
     headerLines: z.number().int().min(0).max(1000).optional(),
+    footerLines: z.number().int().min(0).max(1000).optional(),
+    block: z.number().int().min(1).max(1000).optional(),
     wavelengthColumn: z.number().int().min(0).max(MAX_COLUMNS - 1, `Column indexes run from 0 to ${MAX_COLUMNS - 1}`).optional(),
     transmissionColumn: z.number().int().min(0).max(MAX_COLUMNS - 1, `Column indexes run from 0 to ${MAX_COLUMNS - 1}`).optional(),
   })

@@ -52,13 +52,14 @@ function columnStats(values: number[]): ColumnStats {
 export function chooseColumns(
   lines: string[],
   dataStart: number,
+  dataEnd: number,
   layout: Layout,
   ncols: number,
   header: HeaderInfo,
   options: ReadOptions,
 ): { wc: number; tc: number } {
   const cols: number[][] = Array.from({ length: ncols }, () => []);
-  for (let i = dataStart, n = 0; i < lines.length && n < SAMPLE_ROWS; i++) {
+  for (let i = dataStart, n = 0; i <= dataEnd && n < SAMPLE_ROWS; i++) {
     if (isSkippable(lines[i])) continue;
     const f = splitLine(lines[i], layout.delimiter);
     for (let c = 0; c < ncols; c++) cols[c].push(c < f.length ? parseNumber(f[c], layout.decimal) : NaN);

@@ -1,14 +1,14 @@
 /**
  * Layout detection: which delimiter and decimal mark the file uses (sniffed on
- * a bounded prefix), and where its data rows begin.
+ * a bounded prefix), and where its blocks of data rows lie.
  */
 
 import { EngineInputError, type LineDetail } from '../errors';
-import { splitLine, tooManyColumns } from './fields';
+import { splitLine } from './fields';
 import { MAX_COLUMNS, MAX_NUMBER_CHARS } from './limits';
 import { isOverlongNumber, overlongMessage, parseNumber } from './numbers';
-import { fail, isBlank, isSkippable } from './text';
-import type { DecimalSeparator, Delimiter, ReadOptions } from './types';
+import { isBlank, isSkippable } from './text';
+import type { DecimalSeparator, Delimiter, ReadOptions, SkippedLines } from './types';
 
 const SNIFF_LINES = 200;
 
@@ -39,22 +39,26 @@ const LAYOUTS: Layout[] = [
 interface RowShape {
   numeric: number;
   nonEmpty: number;
-  /** More than MAX_COLUMNS fields (only the first MAX_COLUMNS are counted). */
-  wide: boolean;
+  /** Fields in the row, MAX_COLUMNS + 1 standing for "more than MAX_COLUMNS" (only the first MAX_COLUMNS are looked at). */
+  width: number;
+  firstNumeric: boolean;
 }
 
 function shapeOf(line: string, layout: Layout): RowShape {
   const fields = splitLine(line, layout.delimiter);
-  const wide = fields.length > MAX_COLUMNS;
   let numeric = 0;
   let nonEmpty = 0;
+  let firstNumeric = false;
   for (let k = 0; k < Math.min(fields.length, MAX_COLUMNS); k++) {
     const f = fields[k];
     if (isBlank(f)) continue;
     nonEmpty++;
-    if (!Number.isNaN(parseNumber(f, layout.decimal))) numeric++;
+    if (!Number.isNaN(parseNumber(f, layout.decimal))) {
+      numeric++;
+      if (k === 0) firstNumeric = true;
+    }
   }
-  return { numeric, nonEmpty, wide };
+  return { numeric, nonEmpty, width: fields.length, firstNumeric };
 }
 
 function isDataShape(s: RowShape): boolean {
@@ -97,51 +101,154 @@ export function sniffLayout(lines: string[], from: number, options: ReadOptions)
   return best;
 }
 
+/** A run of data rows: lines start…end (0-based, inclusive) of the file. */
+export interface Block {
+  start: number;
+  end: number;
+  /** Rows in it made of numbers with the block's width. */
+  rows: number;
+  /** Fields per row (capped at MAX_COLUMNS + 1). */
+  width: number;
+}
+
 /**
- * The first data row is a row made only of numbers (two or more) after which at
- * least two of the next three rows hold as many numbers. One bad value early in
- * the data then still fails loudly on its own line, while a stray preamble line
- * (a date written with commas, a serial number) is not taken for data. Rows
- * with a text column are accepted as a second choice.
+ * The data blocks of lines from…to−1: runs of rows of the same shape, so a
+ * header above and a footer below (an "End of data" line, a summary, a
+ * checksum) fall away. A run starts at a row of numbers (two or more, and at
+ * least half of its fields) and goes on through
+ *   - rows of numbers with its width,
+ *   - rows with its width holding at least one number (a bad value, reported
+ *     later on its own line rather than cutting the data in two),
+ *   - rows beginning with a number whatever their width (a value missing or
+ *     one too many, also reported), when more rows of numbers follow,
+ *   - blank and comment lines;
+ * anything else (a text line, a second header) ends it. Rows just above or
+ * below that begin with a number and have the block's width are kept in it,
+ * so a bad value in the first or last row is reported, not skipped.
+ * One shape per line, so the cost is linear in the file.
  */
-export function findDataStart(lines: string[], from: number, layout: Layout): number {
-  const next = (i: number) => {
-    let j = i + 1;
-    while (j < lines.length && isSkippable(lines[j])) j++;
-    return j;
+export function findBlocks(lines: string[], from: number, to: number, layout: Layout): Block[] {
+  const blocks: Block[] = [];
+  let cur: Block | null = null;
+  let edge = -1; // last row of the current run that may end it
+  // rows beginning with a number, all of one width, just before the current line
+  let leadStart = -1;
+  let leadWidth = -1;
+  let prev = -1; // the last line before this one that is not blank or a comment
+  const close = () => {
+    if (cur) blocks.push({ ...cur, end: edge });
+    cur = null;
   };
-  const scan = (strict: boolean) => {
-    for (let i = from; i < lines.length; i++) {
-      if (isSkippable(lines[i])) continue;
-      const s0 = shapeOf(lines[i], layout);
-      if (!isDataShape(s0) || (strict && s0.numeric !== s0.nonEmpty)) continue;
-      if (s0.wide) fail([tooManyColumns(i + 1)]);
-      let looked = 0;
-      let good = 0;
-      for (let j = next(i); looked < 3 && j < lines.length; j = next(j)) {
-        looked++;
-        const s = shapeOf(lines[j], layout);
-        if (isDataShape(s) && s.numeric === s0.numeric) good++;
+  for (let i = from; i < to; i++) {
+    const line = lines[i];
+    if (isSkippable(line)) continue;
+    const s = shapeOf(line, layout);
+    const data = isDataShape(s);
+    const after = prev;
+    prev = i;
+    if (cur !== null) {
+      const c: Block = cur;
+      if (s.width === c.width && data) {
+        c.rows++;
+        edge = i;
+        continue;
       }
-      if (looked === 0 ? true : looked < 3 ? good === looked : good >= 2) return i;
+      if (s.width === c.width && s.numeric > 0) {
+        if (s.firstNumeric && edge === after) edge = i;
+        continue;
+      }
+      if (s.firstNumeric) continue;
+      close();
     }
-    return -1;
-  };
-  const strict = scan(true);
-  const start = strict >= 0 ? strict : scan(false);
-  if (start < 0) return start;
-  // rows just above that begin with a number and have as many fields are data
-  // with a bad value, not preamble: keep them so the bad value is reported
-  const width = splitLine(lines[start], layout.delimiter).length;
-  if (width > MAX_COLUMNS) fail([tooManyColumns(start + 1)]);
-  let first = start;
-  for (let i = start - 1; i >= from; i--) {
-    if (isSkippable(lines[i])) continue;
-    const f = splitLine(lines[i], layout.delimiter);
-    if (f.length !== width || Number.isNaN(parseNumber(f[0], layout.decimal))) break;
-    first = i;
+    if (data) {
+      const start = leadWidth === s.width && leadStart >= 0 ? leadStart : i;
+      cur = { start, end: i, rows: 1, width: s.width };
+      edge = i;
+      leadStart = -1;
+      leadWidth = -1;
+    } else if (s.firstNumeric) {
+      if (leadWidth !== s.width) {
+        leadStart = i;
+        leadWidth = s.width;
+      }
+    } else {
+      leadStart = -1;
+      leadWidth = -1;
+    }
   }
-  return first;
+  close();
+  return blocks;
+}
+
+/** Runs of two or more rows of numbers are blocks; a lone row of numbers (a date, a serial number) is not, unless nothing else is. */
+export function dataBlocks(runs: Block[]): Block[] {
+  const real = runs.filter((b) => b.rows >= 2);
+  return real.length > 0 ? real : runs;
+}
+
+/**
+ * The block asked for, else the first one when the caller set the header
+ * lines, the last one when they set only the footer lines, else the largest
+ * (the first of equals).
+ */
+export function chooseBlock(blocks: Block[], options: ReadOptions): Block {
+  if (options.block !== undefined) return blocks[options.block - 1];
+  if (options.headerLines !== undefined) return blocks[0];
+  if (options.footerLines !== undefined) return blocks[blocks.length - 1];
+  let best = blocks[0];
+  for (const b of blocks) if (b.rows > best.rows) best = b;
+  return best;
+}
+
+export function firstContentLine(lines: string[], from: number, to: number): number {
+  for (let i = from; i < to; i++) if (!isSkippable(lines[i])) return i;
+  return from;
+}
+
+export function lastContentLine(lines: string[], from: number, to: number): number {
+  for (let i = to - 1; i >= from; i--) if (!isSkippable(lines[i])) return i;
+  return to - 1;
+}
+
+function firstText(lines: string[], from: number, to: number): string | null {
+  for (let i = from; i <= to; i++) {
+    if (isSkippable(lines[i])) continue;
+    const t = lines[i].trim();
+    return t.length > 60 ? `${t.slice(0, 59)}…` : t;
+  }
+  return null;
+}
+
+/**
+ * What lies outside the data read: the header above, other blocks, and the
+ * footer below, each as a stretch of lines with its first line of text.
+ * Stretches of only blank and comment lines are not reported.
+ */
+export function skippedLines(lines: string[], start: number, end: number, blocks: Block[], chosen: Block): SkippedLines[] {
+  const out: SkippedLines[] = [];
+  const add = (from: number, to: number, what: SkippedLines['what']) => {
+    if (to < from) return;
+    const text = firstText(lines, from, to);
+    if (text !== null) out.push({ from: from + 1, to: to + 1, what, text });
+  };
+  const before = blocks.filter((b) => b.end < start && b !== chosen);
+  const after = blocks.filter((b) => b.start > end && b !== chosen);
+  // the header is what lies just above the data, below any earlier block
+  let cursor = 0;
+  for (const b of before) {
+    add(cursor, b.start - 1, cursor === 0 ? 'header' : 'footer');
+    add(b.start, b.end, 'other block');
+    cursor = b.end + 1;
+  }
+  add(cursor, start - 1, 'header');
+  cursor = end + 1;
+  for (const b of after) {
+    add(cursor, b.start - 1, 'footer');
+    add(b.start, b.end, 'other block');
+    cursor = b.end + 1;
+  }
+  add(cursor, lines.length - 1, 'footer');
+  return out;
 }
 
 /** The first line (after `from`) holding a field that looks like a number but is too long to be one. */

@@ -18,7 +18,7 @@
 import { MAX_PLAUSIBLE_T, MIN_POINTS, NEGATIVE_NOISE_FLOOR, sortAndCollapse } from '../curve';
 import { CurveReadError, EngineInputError, type LineDetail } from '../errors';
 import { chooseColumns } from './columns';
-import { findDataStart, firstOverlongNumber, sniffLayout } from './detect';
+import { chooseBlock, dataBlocks, findBlocks, firstContentLine, firstOverlongNumber, lastContentLine, skippedLines, sniffLayout } from './detect';
 import { splitLine, tooManyColumns } from './fields';
 import { readHeader, transmissionUnitFromHeader, wavelengthUnitFromHeader } from './header';
 import { MAX_COLUMNS, MAX_NUMBER_CHARS, MAX_ROWS } from './limits';
@@ -41,6 +41,10 @@ function validateOptions(o: ReadOptions, lineCount: number): void {
   if (o.headerLines !== undefined && (!Number.isInteger(o.headerLines) || o.headerLines < 0 || o.headerLines > lineCount)) {
     bad('headerLines', 'headerLines must be a whole number no larger than the number of lines');
   }
+  if (o.footerLines !== undefined && (!Number.isInteger(o.footerLines) || o.footerLines < 0 || (o.headerLines ?? 0) + o.footerLines > lineCount)) {
+    bad('footerLines', 'footerLines must be a whole number; header and footer lines together cannot exceed the number of lines');
+  }
+  if (o.block !== undefined && (!Number.isInteger(o.block) || o.block < 1)) bad('block', 'block must be a whole number from 1');
   for (const f of ['wavelengthColumn', 'transmissionColumn'] as const) {
     const v = o[f];
     if (v !== undefined && (!Number.isInteger(v) || v < 0 || v >= MAX_COLUMNS)) bad(f, `${f} must be a 0-based column index from 0 to ${MAX_COLUMNS - 1}`);
@@ -70,15 +74,11 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
   const warnings: string[] = [];
 
   const from = options.headerLines ?? 0;
+  const to = lines.length - (options.footerLines ?? 0);
   const layout = sniffLayout(lines, from, options);
 
-  let dataStart: number;
-  if (options.headerLines !== undefined) {
-    dataStart = lines.findIndex((l, i) => i >= from && !isSkippable(l));
-  } else {
-    dataStart = findDataStart(lines, from, layout);
-  }
-  if (dataStart < 0) {
+  const blocks = dataBlocks(findBlocks(lines, from, to, layout));
+  if (blocks.length === 0) {
     const overlong = firstOverlongNumber(lines, from, layout.delimiter);
     if (overlong) fail([overlong]);
     const single = lines.findIndex((l) => !isSkippable(l) && !Number.isNaN(parseNumber(l, layout.decimal)));
@@ -87,19 +87,19 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
     }
     fail([{ line: 1, message: 'no rows of numbers were found in this file' }]);
   }
-
-  // modal field count of the first rows decides how many columns there are
-  const counts = new Map<number, number>();
-  for (let i = dataStart, n = 0; i < lines.length && n < 50; i++) {
-    if (isSkippable(lines[i])) continue;
-    const k = splitLine(lines[i], layout.delimiter).length;
-    counts.set(k, (counts.get(k) ?? 0) + 1);
-    n++;
+  if (options.block !== undefined && options.block > blocks.length) {
+    fail([{ line: blocks[blocks.length - 1].start + 1, message: `block ${options.block} does not exist; the file holds ${blocks.length} block${blocks.length > 1 ? 's' : ''} of data` }]);
   }
-  let ncols = 0;
-  let bestCount = -1;
-  for (const [k, v] of counts) if (v > bestCount || (v === bestCount && k > ncols)) [ncols, bestCount] = [k, v];
-  if (ncols > MAX_COLUMNS) fail([tooManyColumns(dataStart + 1)]);
+  const chosen = chooseBlock(blocks, options);
+  const blockIndex = blocks.indexOf(chosen);
+  // header and footer lines the caller set are exact: the data runs up to them
+  let dataStart = chosen.start;
+  let dataEnd = chosen.end;
+  if (options.headerLines !== undefined && blockIndex === 0) dataStart = firstContentLine(lines, from, to);
+  if (options.footerLines !== undefined && blockIndex === blocks.length - 1) dataEnd = lastContentLine(lines, from, to);
+
+  const ncols = chosen.width;
+  if (ncols > MAX_COLUMNS) fail([tooManyColumns(chosen.start + 1)]);
   if (ncols < 2) {
     fail([{ line: dataStart + 1, message: 'only one column of numbers was found; a curve needs a wavelength column and a transmission column' }]);
   }
@@ -109,9 +109,19 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
       fail([{ line: dataStart + 1, message: `${f} ${v} does not exist; the data rows have ${ncols} columns (0 to ${ncols - 1})` }]);
     }
   }
+  const skipped = skippedLines(lines, dataStart, dataEnd, blocks, chosen);
+  for (const k of skipped) {
+    if (k.what === 'header') continue;
+    const where = k.from === k.to ? `Line ${k.from}` : `Lines ${k.from}–${k.to}`;
+    warnings.push(
+      k.what === 'footer'
+        ? `${where} after the data (“${k.text}”) were left out as a footer; set the trailing lines to ignore if that is wrong.`
+        : `${where} hold another block of data (“${k.text}”), left out; choose the block to read if that is wrong.`,
+    );
+  }
 
   const header = readHeader(lines, dataStart, layout, ncols);
-  const { wc, tc } = chooseColumns(lines, dataStart, layout, ncols, header, options);
+  const { wc, tc } = chooseColumns(lines, dataStart, dataEnd, layout, ncols, header, options);
   if (tc === undefined || tc === wc) {
     fail([{ line: dataStart + 1, message: 'no transmission column could be told apart from the wavelength column' }]);
   }
@@ -121,7 +131,7 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
 
   // read every data row into typed arrays (a 200 000-row file must parse in well under a second)
   const errors: LineDetail[] = [];
-  const cap = Math.max(0, Math.min(lines.length - dataStart, MAX_ROWS));
+  const cap = Math.max(0, Math.min(dataEnd + 1 - dataStart, MAX_ROWS));
   const wlRaw = new Float64Array(cap);
   const tRaw = new Float64Array(cap);
   const lineNo = new Int32Array(cap);
@@ -129,7 +139,7 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
   const { delimiter, decimal } = layout;
   const plain = delimiter !== 'whitespace' && decimal === '.';
   const need = Math.max(wc, tc);
-  for (let i = dataStart; i < lines.length; i++) {
+  for (let i = dataStart; i <= dataEnd; i++) {
     const line = lines[i];
     if (isSkippable(line)) continue;
     if (n >= MAX_ROWS) {
@@ -270,9 +280,13 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
       delimiter,
       decimalSeparator: decimal,
       headerLines: dataStart,
+      footerLines: lines.length - 1 - dataEnd,
+      block: blockIndex + 1,
+      blocks: blocks.length,
       wavelengthColumn: wc,
       transmissionColumn: tc,
       columns: header.names,
+      skipped,
     },
     rowCount: n,
     warnings,

@@ -17,6 +17,10 @@ export interface ReadOptions {
   decimalSeparator?: DecimalSeparator;
   /** Lines at the top of the file that are not data (the first data row is line headerLines + 1). */
   headerLines?: number;
+  /** Lines at the end of the file that are not data (a footer, a summary, a checksum). */
+  footerLines?: number;
+  /** Which block of data to read, 1-based in file order, when the file holds several (default: the largest). */
+  block?: number;
   /** 0-based column indexes. */
   wavelengthColumn?: number;
   transmissionColumn?: number;
@@ -28,9 +32,23 @@ export interface ReadAssumptions {
   delimiter: Delimiter;
   decimalSeparator: DecimalSeparator;
   headerLines: number;
+  footerLines: number;
+  /** The block read (1-based) and how many blocks of data the file holds. */
+  block: number;
+  blocks: number;
   wavelengthColumn: number;
   transmissionColumn: number;
   columns: string[];
+  /** Stretches of the file left out of the curve (1-based lines, inclusive), with their first line of text. */
+  skipped: SkippedLines[];
+}
+
+export interface SkippedLines {
+  from: number;
+  to: number;
+  what: 'header' | 'footer' | 'other block';
+  /** The first line of text in the stretch, cut to 60 characters. */
+  text: string;
 }
 
 export interface ReadResult {
