@@ -52,6 +52,7 @@ export const readerOptionsSchema = z
     headerLines: z.number().int().min(0).max(1000).optional(),
     footerLines: z.number().int().min(0).max(1000).optional(),
     block: z.number().int().min(1).max(1000).optional(),
+    pair: z.number().int().min(1).max(MAX_COLUMNS / 2).optional(),
     wavelengthColumn: z.number().int().min(0).max(MAX_COLUMNS - 1, `Column indexes run from 0 to ${MAX_COLUMNS - 1}`).optional(),
     transmissionColumn: z.number().int().min(0).max(MAX_COLUMNS - 1, `Column indexes run from 0 to ${MAX_COLUMNS - 1}`).optional(),
   })

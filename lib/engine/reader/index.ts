@@ -23,7 +23,7 @@ import { splitLine, tooManyColumns } from './fields';
 import { readHeader, transmissionUnitFromHeader, wavelengthUnitFromHeader } from './header';
 import { MAX_COLUMNS, MAX_NUMBER_CHARS, MAX_ROWS } from './limits';
 import { hasDigit, overlongMessage, parseNumber } from './numbers';
-import { MAX_DETAILS, checkPrintable, decode, fail, isSkippable, splitLines } from './text';
+import { MAX_DETAILS, checkPrintable, decode, fail, isBlank, isSkippable, splitLines } from './text';
 import type { ReadOptions, ReadResult, WavelengthUnit } from './types';
 
 export { MAX_COLUMNS, MAX_FILE_BYTES, MAX_LINES, MAX_NUMBER_CHARS, MAX_ROWS } from './limits';
@@ -45,6 +45,7 @@ function validateOptions(o: ReadOptions, lineCount: number): void {
     bad('footerLines', 'footerLines must be a whole number; header and footer lines together cannot exceed the number of lines');
   }
   if (o.block !== undefined && (!Number.isInteger(o.block) || o.block < 1)) bad('block', 'block must be a whole number from 1');
+  if (o.pair !== undefined && (!Number.isInteger(o.pair) || o.pair < 1 || 2 * o.pair > MAX_COLUMNS)) bad('pair', `pair must be a whole number from 1 to ${MAX_COLUMNS / 2}`);
   for (const f of ['wavelengthColumn', 'transmissionColumn'] as const) {
     const v = o[f];
     if (v !== undefined && (!Number.isInteger(v) || v < 0 || v >= MAX_COLUMNS)) bad(f, `${f} must be a 0-based column index from 0 to ${MAX_COLUMNS - 1}`);
@@ -121,11 +122,20 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
   }
 
   const header = readHeader(lines, dataStart, layout, ncols);
-  const { wc, tc } = chooseColumns(lines, dataStart, dataEnd, layout, ncols, header, options);
+  if (options.pair !== undefined && 2 * options.pair > ncols) {
+    fail([{ line: dataStart + 1, message: `column pair ${options.pair} does not exist; the data rows have ${ncols} columns (${Math.floor(ncols / 2)} pairs)` }]);
+  }
+  const { wc, tc, pairs, pair, pairAngles } = chooseColumns(lines, dataStart, dataEnd, layout, ncols, header, options);
   if (tc === undefined || tc === wc) {
     fail([{ line: dataStart + 1, message: 'no transmission column could be told apart from the wavelength column' }]);
   }
-  if (ncols > 2 && (options.wavelengthColumn === undefined || options.transmissionColumn === undefined)) {
+  const readingPair = pair > 0;
+  if (pairs >= 2) {
+    const angles = pairAngles.every((a) => a !== null) ? ` (at ${pairAngles.map((a) => `${a}°`).join(', ')})` : '';
+    warnings.push(
+      `The file holds ${pairs} pairs of columns side by side${angles}; pair ${pair || '–'} (“${header.names[wc]}”, “${header.names[tc]}”) was read. Choose another pair, or read each pair as one curve of a set.`,
+    );
+  } else if (ncols > 2 && (options.wavelengthColumn === undefined || options.transmissionColumn === undefined)) {
     warnings.push(`The file has ${ncols} columns; "${header.names[wc]}" was read as wavelength and "${header.names[tc]}" as transmission.`);
   }
 
@@ -170,6 +180,8 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
         ft = f[tc];
       }
     }
+    // a shorter scan in a pair of columns is padded with blank fields
+    if (readingPair && seen > need && isBlank(fw) && isBlank(ft)) continue;
     if (seen > MAX_COLUMNS) {
       errors.push(tooManyColumns(i + 1));
       if (errors.length >= MAX_DETAILS) break;
@@ -286,6 +298,9 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
       wavelengthColumn: wc,
       transmissionColumn: tc,
       columns: header.names,
+      pairs,
+      pair,
+      pairAngles,
       skipped,
     },
     rowCount: n,

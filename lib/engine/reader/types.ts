@@ -21,6 +21,8 @@ export interface ReadOptions {
   footerLines?: number;
   /** Which block of data to read, 1-based in file order, when the file holds several (default: the largest). */
   block?: number;
+  /** Which pair of (wavelength, transmission) columns to read, 1-based, when scans at several angles stand side by side. */
+  pair?: number;
   /** 0-based column indexes. */
   wavelengthColumn?: number;
   transmissionColumn?: number;
@@ -39,6 +41,10 @@ export interface ReadAssumptions {
   wavelengthColumn: number;
   transmissionColumn: number;
   columns: string[];
+  /** Column pairs side by side (one scan per angle): how many, which one was read (0 when none), and each pair's angle when the header names it. */
+  pairs: number;
+  pair: number;
+  pairAngles: (number | null)[];
   /** Stretches of the file left out of the curve (1-based lines, inclusive), with their first line of text. */
   skipped: SkippedLines[];
 }
