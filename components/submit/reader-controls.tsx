@@ -42,7 +42,13 @@ function LineCount(props: { id: string; label: string; value: number | undefined
 }
 
 /** What the reader assumed about a file, each guess overridable; changing one re-reads the file. */
-export function ReaderControls(props: { idPrefix: string; assumed: Assumed | null; options: ReaderOptions; onChange: (next: ReaderOptions) => void }) {
+export function ReaderControls(props: {
+  idPrefix: string;
+  assumed: Assumed | null;
+  options: ReaderOptions;
+  onChange: (next: ReaderOptions) => void;
+  onSplitPairs?: (angles: number[]) => void;
+}) {
   const { assumed, options } = props;
   const set = <K extends keyof ReaderOptions>(key: K, value: ReaderOptions[K] | undefined) => {
     const next = { ...options };
@@ -54,6 +60,12 @@ export function ReaderControls(props: { idPrefix: string; assumed: Assumed | nul
   const columnWords = Object.fromEntries(columns.map((c, i) => [String(i), `${i + 1}: ${c}`]));
   const blockWords = Object.fromEntries(Array.from({ length: Math.max(assumed?.blocks ?? 1, options.block ?? 1) }, (_, i) => [String(i + 1), `block ${i + 1}`]));
   const skipped = assumed?.skipped ?? [];
+  const pairs = assumed?.pairs ?? 0;
+  const angles = assumed?.pairAngles ?? [];
+  const pairWords = Object.fromEntries(
+    Array.from({ length: Math.max(pairs, options.pair ?? 0) }, (_, i) => [String(i + 1), `pair ${i + 1}${angles[i] != null ? ` (${angles[i]}°)` : ''}`]),
+  );
+  const namedAngles = pairs >= 2 && angles.length === pairs && angles.every((a) => a !== null) ? (angles as number[]) : null;
   const id = (k: string) => `${props.idPrefix}-${k}`;
   return (
     <fieldset className="space-y-2">
@@ -69,6 +81,10 @@ export function ReaderControls(props: { idPrefix: string; assumed: Assumed | nul
           <Choice id={id('blk')} label="Data block" value={options.block?.toString()} guess={assumed ? String(assumed.block) : undefined} words={blockWords}
             onChange={(v) => set('block', v === undefined ? undefined : Number(v))} />
         ) : null}
+        {pairs >= 2 || options.pair !== undefined ? (
+          <Choice id={id('pair')} label="Column pair" value={options.pair?.toString()} guess={assumed?.pair ? String(assumed.pair) : undefined} words={pairWords}
+            onChange={(v) => set('pair', v === undefined ? undefined : Number(v))} />
+        ) : null}
         {columns.length >= 2 || options.wavelengthColumn !== undefined || options.transmissionColumn !== undefined ? (
           <>
             <Choice id={id('wc')} label="Wavelength column" value={options.wavelengthColumn?.toString()} guess={assumed ? String(assumed.wavelengthColumn) : undefined} words={columnWords}
@@ -78,6 +94,14 @@ export function ReaderControls(props: { idPrefix: string; assumed: Assumed | nul
           </>
         ) : null}
       </div>
+      {namedAngles && props.onSplitPairs ? (
+        <p className="text-sm">
+          This file holds {pairs} scans side by side, at {namedAngles.map((a) => `${a}°`).join(', ')}.{' '}
+          <button type="button" onClick={() => props.onSplitPairs?.(namedAngles)} className="text-accent underline underline-offset-2">
+            Read each as one curve of a set
+          </button>
+        </p>
+      ) : null}
       {skipped.length > 0 ? (
         <p className="text-xs text-muted" data-testid={id('skipped')}>
           Left out:{' '}

@@ -6,7 +6,7 @@ import type { Browser, Page } from 'playwright-core';
 import { launch, screenshot, signInAs } from '../support/browser';
 import { BASE } from '../support/http';
 import { makeUser } from '../support/users';
-import { curveCsv, HA_NM } from '../integration/submissions-fixtures';
+import { butterworthPoints, curveCsv, HA_NM } from '../integration/submissions-fixtures';
 import { closeSequelize } from '@/db/connection';
 
 // A lab export that ends with a footer (common practice of instrument exports:
@@ -55,7 +55,7 @@ describe('uploading a lab file with a footer', () => {
       // with no trailing lines ignored, the footer is read as data and refused on its line
       await page.locator('#file-0-ftr').fill('0');
       await page.waitForFunction(() => /could not be read/.test(document.body.textContent ?? ''), undefined, { timeout: 30_000 });
-      await expect(page.locator('body').textContent()).resolves.toMatch(new RegExp(`Line ${rows + 3}: "End of data" is not a row of numbers`));
+      await expect(page.locator('article').first().textContent()).resolves.toMatch(new RegExp(`line ${rows + 3}\\s*"End of data" is not a row of numbers`));
       await page.locator('#file-0-ftr').fill('3');
       await page.waitForSelector('[data-testid=derived-numbers]', { timeout: 30_000 });
       await expect(page.locator('#file-0-ftr').inputValue()).resolves.toBe('3');
@@ -66,4 +66,33 @@ describe('uploading a lab file with a footer', () => {
       await page.context().close();
     });
   }
+});
+
+// One filter scanned at three angles, exported side by side with the angles in
+// the header; generated with n_eff = 1.9, so the set's fitted effective index
+// must come back as 1.9 (closed form CWL(θ) = CWL₀ √(1 − sin²θ/n²), docs/model.md §3).
+describe('scans at several angles side by side', () => {
+  it('are offered as a set and become one curve per angle, with the fitted effective index', async () => {
+    const angles = [0, 12, 20];
+    const scans = angles.map((a, k) => butterworthPoints({ cwlNm: HA_NM, fwhmNm: 3, aoiDeg: a, nEff: 1.9, noiseSeed: 300 + k }));
+    const n = Math.max(...scans.map((s) => s.wavelengthNm.length));
+    const lines = [angles.map((a) => `Wavelength ${a}deg (nm),T ${a}deg`).join(',')];
+    for (let i = 0; i < n; i++) lines.push(scans.map((s) => (i < s.wavelengthNm.length ? `${s.wavelengthNm[i]},${s.transmission[i]}` : ',')).join(','));
+    const file = path.join(dir, 'three-angles.csv');
+    writeFileSync(file, lines.join('\n') + '\n');
+
+    const page = await open(390);
+    await page.locator('.uppy-Dashboard-input').first().setInputFiles([file]);
+    await page.waitForSelector('[data-testid=derived-numbers]', { timeout: 30_000 });
+    await expect(page.locator('#file-0-pair').count()).resolves.toBe(1);
+    await page.getByRole('button', { name: 'Read each as one curve of a set' }).click();
+    await page.waitForFunction(() => document.querySelectorAll('[data-testid=derived-numbers]').length >= 3, undefined, { timeout: 30_000 });
+    await expect(page.getByTestId('aoi-input').evaluateAll((els) => els.map((e) => (e as HTMLInputElement).value))).resolves.toEqual(['0', '12', '20']);
+    await page.waitForFunction(() => !!document.querySelector('[data-testid=neff-value]'), undefined, { timeout: 30_000 });
+    expect(Number(await page.getByTestId('neff-value').textContent())).toBeCloseTo(1.9, 1);
+    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+    expect(overflow).toBeLessThanOrEqual(0);
+    await screenshot(page, 'upload-pairs-390');
+    await page.context().close();
+  });
 });

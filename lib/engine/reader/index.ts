@@ -24,6 +24,7 @@ import { readHeader, transmissionUnitFromHeader, wavelengthUnitFromHeader } from
 import { MAX_COLUMNS, MAX_NUMBER_CHARS, MAX_ROWS } from './limits';
 import { hasDigit, overlongMessage, parseNumber } from './numbers';
 import { MAX_DETAILS, checkPrintable, decode, fail, isBlank, isSkippable, splitLines } from './text';
+import { checkedPoints } from './values';
 import type { ReadOptions, ReadResult, WavelengthUnit } from './types';
 
 export { MAX_COLUMNS, MAX_FILE_BYTES, MAX_LINES, MAX_NUMBER_CHARS, MAX_ROWS } from './limits';
@@ -57,13 +58,6 @@ function validateOptions(o: ReadOptions, lineCount: number): void {
 
 function describeWl(u: WavelengthUnit): string {
   return u === 'angstrom' ? 'Å' : u === 'um' ? 'µm' : 'nm';
-}
-
-/** Plain array from a typed one (a loop is several times faster than Array.from here). */
-function toArray(a: Float64Array): number[] {
-  const out = new Array<number>(a.length);
-  for (let i = 0; i < a.length; i++) out[i] = a[i];
-  return out;
 }
 
 export function readCurveText(input: string | Uint8Array, options: ReadOptions = {}): ReadResult {
@@ -238,54 +232,10 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
     if (transmissionUnit === 'percent') warnings.push(`Transmission was read as percent because values reach ${tMax}.`);
   }
 
-  // convert and check values
-  const x = new Float64Array(n);
-  const y = new Float64Array(n);
-  let clamped = 0;
-  const tLabel = (v: number) => (transmissionUnit === 'percent' ? `${v} %` : transmissionUnit === 'od' ? `OD ${v}` : `${v}`);
-  for (let i = 0; i < n; i++) {
-    // dividing by 10 keeps Å values that are exact decimals at the nearest double
-    const w = wavelengthUnit === 'angstrom' ? wlRaw[i] / 10 : wavelengthUnit === 'um' ? wlRaw[i] * 1000 : wlRaw[i];
-    if (!(w > 0) || !Number.isFinite(w)) {
-      errors.push({ line: lineNo[i], message: `wavelength ${wlRaw[i]} is not a positive finite number` });
-    }
-    const r = tRaw[i];
-    let t = transmissionUnit === 'percent' ? r / 100 : transmissionUnit === 'od' ? 10 ** -r : r;
-    if (!Number.isFinite(t)) {
-      errors.push({ line: lineNo[i], message: `transmission ${tLabel(r)} is not a finite number` });
-    } else if (t < NEGATIVE_NOISE_FLOOR) {
-      errors.push({ line: lineNo[i], message: `transmission ${tLabel(r)} is negative beyond instrument noise` });
-    } else if (t > MAX_PLAUSIBLE_T) {
-      errors.push({ line: lineNo[i], message: `transmission ${tLabel(r)} is above 150 %, which is not a plausible reading` });
-    } else if (t < 0) {
-      t = 0;
-      clamped++;
-    }
-    x[i] = w;
-    y[i] = t;
-    if (errors.length >= MAX_DETAILS) break;
-  }
-  if (errors.length > 0) fail(errors);
-  if (clamped > 0) warnings.push(`${clamped} slightly negative transmission value(s), within instrument noise, were set to 0.`);
-
-  const c = sortAndCollapse(x, y, lineNo);
-  if (c.conflicts.length > 0) {
-    fail(
-      c.conflicts.slice(0, MAX_DETAILS).map(([a, b]) => ({
-        line: b,
-        message: `wavelength repeats line ${a} with a different transmission (lines ${a} and ${b})`,
-      })),
-    );
-  }
-  if (c.reordered === 'descending') warnings.push('Wavelengths were descending and have been put in ascending order.');
-  if (c.reordered === 'sorted') warnings.push('Wavelengths were out of order and have been sorted.');
-  if (c.collapsed > 0) warnings.push(`${c.collapsed} exactly repeated row(s) were merged.`);
-  if (c.x.length < MIN_POINTS) {
-    fail([{ line: lineNo[n - 1] ?? dataStart + 1, message: `only ${c.x.length} distinct wavelength(s); a curve needs at least ${MIN_POINTS}` }]);
-  }
+  const points = checkedPoints(wlRaw, tRaw, lineNo, n, wavelengthUnit, transmissionUnit, dataStart + 1, warnings);
 
   return {
-    points: { wavelengthNm: toArray(c.x), transmission: toArray(c.y) },
+    points,
     assumed: {
       wavelengthUnit,
       transmissionUnit,
