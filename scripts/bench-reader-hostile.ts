@@ -34,6 +34,9 @@ export const SHAPES: Record<string, (bytes: number) => string | Uint8Array> = {
   'blank lines only': (b) => repeatTo('\n', b),
   'comment lines only': (b) => repeatTo('# 650,0.5\n', b),
   'an unclosed quote over the whole file': (b) => repeatTo(',', b, '650,"'),
+  'JCAMP-DX: compressed rows, valid': (b) => repeatTo('650A00J00K00L00M00N00O00P00Q00R00\n', b, '##TITLE= x\n##XUNITS= NANOMETERS\n##YUNITS= TRANSMITTANCE\n##YFACTOR= 0.00001\n##XYDATA= (X++(Y..Y))\n', '##END=\n'),
+  'JCAMP-DX: (X,Y) pairs without ++': (b) => repeatTo('650.5, 0.5; 651.5, 0.5\n', b, '##TITLE= x\n##XYPOINTS= (XY..XY)\n', '##END=\n'),
+  'JCAMP-DX: one long label line': (b) => repeatTo('A', b, '##TITLE= '),
   'NUL at the end': (b) => {
     const t = new TextEncoder().encode(repeatTo('650.1,0.5\n', b - 1));
     const out = new Uint8Array(t.length + 1);

@@ -12,7 +12,7 @@ import { MAX_FILE_BYTES } from '@/lib/engine/reader/limits';
 export type UploadBody = { id: number; status: string; error?: string };
 export type SubmissionUppy = Uppy<Meta, UploadBody>;
 
-export const ALLOWED_TYPES = ['.csv', '.tsv', '.txt', '.dat', '.asc', 'text/*'];
+export const ALLOWED_TYPES = ['.csv', '.tsv', '.txt', '.dat', '.asc', '.jdx', '.dx', '.jcamp', 'text/*'];
 export { MAX_FILE_BYTES } from '@/lib/engine/reader/limits';
 export const MAX_FILES = 20;
 

@@ -25,6 +25,7 @@ import { MAX_COLUMNS, MAX_NUMBER_CHARS, MAX_ROWS } from './limits';
 import { hasDigit, overlongMessage, parseNumber } from './numbers';
 import { MAX_DETAILS, checkPrintable, decode, fail, isBlank, isSkippable, splitLines } from './text';
 import { checkedPoints } from './values';
+import { isJcamp, readJcamp } from './jcamp';
 import type { ReadOptions, ReadResult, WavelengthUnit } from './types';
 
 export { MAX_COLUMNS, MAX_FILE_BYTES, MAX_LINES, MAX_NUMBER_CHARS, MAX_ROWS } from './limits';
@@ -66,6 +67,7 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
   const lines = splitLines(text);
   if (lines.length > 0 && lines[lines.length - 1] === '') lines.pop();
   validateOptions(options, lines.length);
+  if (isJcamp(text)) return readJcamp(lines, options);
   const warnings: string[] = [];
 
   const from = options.headerLines ?? 0;
@@ -237,6 +239,7 @@ export function readCurveText(input: string | Uint8Array, options: ReadOptions =
   return {
     points,
     assumed: {
+      format: 'table',
       wavelengthUnit,
       transmissionUnit,
       delimiter,

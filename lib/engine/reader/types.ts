@@ -29,6 +29,8 @@ export interface ReadOptions {
 }
 
 export interface ReadAssumptions {
+  /** A table of columns, or a JCAMP-DX file. */
+  format: 'table' | 'jcamp-dx';
   wavelengthUnit: WavelengthUnit;
   transmissionUnit: TransmissionUnit;
   delimiter: Delimiter;
