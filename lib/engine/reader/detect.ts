@@ -122,7 +122,9 @@ export interface Block {
  *   - rows beginning with a number whatever their width (a value missing or
  *     one too many, also reported), when more rows of numbers follow,
  *   - blank and comment lines;
- * anything else (a text line, a second header) ends it. Rows just above or
+ * anything else ends it: a header row, or two text lines (one text line alone
+ * between rows of numbers stays in the run, to be refused on its line, as a
+ * typo in the data must not silently cut it short). Rows just above or
  * below that begin with a number and have the block's width are kept in it,
  * so a bad value in the first or last row is reported, not skipped.
  * One shape per line, so the cost is linear in the file.
@@ -135,6 +137,8 @@ export function findBlocks(lines: string[], from: number, to: number, layout: La
   let leadStart = -1;
   let leadWidth = -1;
   let prev = -1; // the last line before this one that is not blank or a comment
+  let gap = false; // the current run has met one text line
+  let gapHeader = false; // …that looks like a header row (its width, no numbers)
   const close = () => {
     if (cur) blocks.push({ ...cur, end: edge });
     cur = null;
@@ -148,17 +152,32 @@ export function findBlocks(lines: string[], from: number, to: number, layout: La
     prev = i;
     if (cur !== null) {
       const c: Block = cur;
-      if (s.width === c.width && data) {
-        c.rows++;
-        edge = i;
+      if (gap) {
+        // one stray text line between rows of numbers is a bad row of the data, reported
+        // later on its line; a header row or two text lines part two blocks
+        if (data && s.width === c.width && !gapHeader) {
+          gap = false;
+          c.rows++;
+          edge = i;
+          continue;
+        }
+        gap = false;
+        close();
+      } else {
+        if (s.width === c.width && data) {
+          c.rows++;
+          edge = i;
+          continue;
+        }
+        if (s.width === c.width && s.numeric > 0) {
+          if (s.firstNumeric && edge === after) edge = i;
+          continue;
+        }
+        if (s.firstNumeric) continue;
+        gap = true;
+        gapHeader = s.width === c.width && s.numeric === 0;
         continue;
       }
-      if (s.width === c.width && s.numeric > 0) {
-        if (s.firstNumeric && edge === after) edge = i;
-        continue;
-      }
-      if (s.firstNumeric) continue;
-      close();
     }
     if (data) {
       const start = leadWidth === s.width && leadStart >= 0 ? leadStart : i;

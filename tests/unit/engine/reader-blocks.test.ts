@@ -84,10 +84,15 @@ describe('several blocks of data', () => {
   });
 
   it('reads the block asked for, and refuses one that does not exist', () => {
-    const first = readCurveText([...scan1, 'Dark', ...rows([670, 680], [0, 0]), ...scan2].join('\n'), { block: 1 });
+    const first = readCurveText([...scan1, 'Dark', 'wl,t', ...rows([670, 680], [0, 0]), ...scan2].join('\n'), { block: 1 });
     expect(first.points.wavelengthNm).toEqual([640, 650, 660, 670, 680]);
     expect(first.assumed).toMatchObject({ block: 1, blocks: 3 });
     expect(refusal(text, { block: 3 }).message).toMatch(/block 3 does not exist; the file holds 2 blocks/);
+  });
+
+  it('one stray text line inside the data is refused on its line, not taken for a second block', () => {
+    const e = refusal(['wl,t', ...rows().slice(0, 3), 'oops', ...rows([660, 662, 664], [0.1, 0.1, 0.1])].join('\n'));
+    expect(e.details[0]).toEqual({ line: 5, message: '"oops" is not a row of numbers (comment it out with #)' });
   });
 
   it('a lone row of numbers in the preamble is not a block', () => {
