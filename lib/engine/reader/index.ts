@@ -9,13 +9,14 @@
  * rows have at most MAX_COLUMNS fields, a number at most MAX_NUMBER_CHARS
  * characters, and the layout is sniffed on a bounded prefix.
  *
- * The parts: text.ts (decoding, lines), detect.ts (layout and where the data
- * begins), header.ts (column names and what they say), fields.ts and
- * columns.ts (splitting rows, choosing the two columns), numbers.ts (number
- * scanning). This module runs them in order and checks the values.
+ * The parts: text.ts (decoding, lines), detect.ts (layout, and the blocks of
+ * data between header and footer), header.ts (column names and what they
+ * say), fields.ts and columns.ts (splitting rows, choosing the two columns or
+ * a column pair), numbers.ts (number scanning), values.ts (units and value
+ * checks), jcamp.ts (JCAMP-DX files). This module runs them in order.
  */
 
-import { MAX_PLAUSIBLE_T, MIN_POINTS, NEGATIVE_NOISE_FLOOR, sortAndCollapse } from '../curve';
+import { MAX_PLAUSIBLE_T } from '../curve';
 import { CurveReadError, EngineInputError, type LineDetail } from '../errors';
 import { chooseColumns } from './columns';
 import { chooseBlock, dataBlocks, findBlocks, firstContentLine, firstOverlongNumber, lastContentLine, skippedLines, sniffLayout } from './detect';
