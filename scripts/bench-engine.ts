@@ -10,6 +10,9 @@ import { buildPupil } from '../lib/engine/pupil';
 import { readCurveText } from '../lib/engine/reader';
 import { runConeModel } from '../lib/engine/cone-study';
 import type { CurvePoints } from '../lib/engine/types';
+import { SHAPES, type HostileFigure } from './bench-reader-hostile';
+import { execFileSync } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
 
 /** Deterministic generator so runs compare like with like. */
 function rng(seed: number) {
@@ -175,3 +178,29 @@ async function benchFieldMap() {
   );
 }
 await benchFieldMap();
+// Hostile files: each shape at 1 MB and 5 MB, each read in a fresh process so
+// its memory growth is its own. Target: any 5 MB file read or refused in ≤ 1 s
+// (CPU) and ≤ 200 MB growth of peak RSS; the 1 MB figures show growth is linear.
+const runner = fileURLToPath(new URL('./bench-reader-hostile.ts', import.meta.url));
+const hostile: (HostileFigure & { meets: boolean })[] = [];
+for (const shape of Object.keys(SHAPES)) {
+  for (const bytes of [1 << 20, 5 << 20]) {
+    const out = execFileSync(process.execPath, ['--import', 'tsx', '--expose-gc', runner, shape, String(bytes)], { encoding: 'utf8' });
+    const f = JSON.parse(out.trim().split('\n').pop()!) as HostileFigure;
+    hostile.push({ ...f, meets: f.cpuMs <= 1000 && f.peakRssGrowthMb <= 200 });
+  }
+}
+console.log('\nHostile files (target: read or refused in ≤ 1000 ms CPU and ≤ 200 MB growth of peak RSS)');
+console.table(
+  hostile.map((f) => ({
+    shape: f.shape,
+    MB: round(f.bytes / 1048576, 2),
+    cpuMs: f.cpuMs,
+    wallMs: f.wallMs,
+    rssMb: f.peakRssGrowthMb,
+    heapMb: f.heapGrowthMb,
+    meets: f.meets,
+    outcome: f.outcome.slice(0, 60),
+  })),
+);
+console.log(`all hostile shapes meet the target: ${hostile.every((f) => f.meets)}`);

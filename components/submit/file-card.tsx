@@ -53,6 +53,8 @@ export function FileCard(props: {
   targetLines?: string[];
   chart: (result: PreviewResult) => ReactNode;
   onRemove: () => void;
+  /** Read each column pair of this file as one curve of a set, at the given angles. */
+  onSplitPairs?: (angles: number[]) => void;
 }) {
   const p = props.preview;
   const result = p?.state === 'ok' ? p.result : p?.state === 'loading' ? p.last : undefined;
@@ -101,7 +103,7 @@ export function FileCard(props: {
         </div>
       ) : null}
 
-      <ReaderControls idPrefix={idp} assumed={result?.assumed ?? null} options={props.options} onChange={props.onOptions} />
+      <ReaderControls idPrefix={idp} assumed={result?.assumed ?? null} options={props.options} onChange={props.onOptions} onSplitPairs={props.onSplitPairs} />
 
       {result ? (
         <div className="space-y-2">

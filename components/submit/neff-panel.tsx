@@ -73,7 +73,9 @@ export function NeffPanel({ points }: { points: AngleCwl[] }) {
             fileName="bandcone-neff-fit"
             titleAs="h4"
           />
-          <table className="w-full max-w-xl text-sm">
+          {/* on a phone the table scrolls inside its own box rather than widening the page */}
+          <div className="max-w-xl overflow-x-auto">
+          <table className="w-full text-sm">
             <caption className="sr-only">Measured and fitted CWL per file</caption>
             <thead>
               <tr className="border-b border-rule text-left text-xs text-muted">
@@ -89,7 +91,7 @@ export function NeffPanel({ points }: { points: AngleCwl[] }) {
                 const fitted = predictCwl(fit.cwl0Nm, fit.nEff, p.aoiDeg);
                 return (
                   <tr key={p.name} className="border-b border-rule/50">
-                    <td className="max-w-[10rem] truncate py-1 pr-3 font-sans">{p.name}</td>
+                    <td className="max-w-[7rem] truncate py-1 pr-3 font-sans sm:max-w-[10rem]">{p.name}</td>
                     <td className="py-1 pr-3 text-right">{fixed(p.aoiDeg, 1)}°</td>
                     <td className="py-1 pr-3 text-right">{formatNm(p.cwlNm)}</td>
                     <td className="py-1 pr-3 text-right">{formatNm(fitted)}</td>
@@ -99,6 +101,7 @@ export function NeffPanel({ points }: { points: AngleCwl[] }) {
               })}
             </tbody>
           </table>
+          </div>
           <p className="text-xs text-muted">Fitted by least squares to λ² = a + b·sin²θ (docs/model.md §Effective index); coatings usually sit between 1.5 and 2.3.</p>
         </>
       ) : (

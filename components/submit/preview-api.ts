@@ -1,17 +1,14 @@
 import type { ApiFailure } from '@/components/account/json-form';
 import type { CheckItem } from '@/components/review/check-list';
+import type { z } from 'zod';
+import type { ReadAssumptions } from '@/lib/engine/reader/types';
+import type { readerOptionsSchema } from '@/lib/schemas/model';
 
-export type ReaderOptions = {
-  wavelengthUnit?: 'nm' | 'angstrom' | 'um';
-  transmissionUnit?: 'fraction' | 'percent' | 'od';
-  delimiter?: ',' | ';' | '\t' | 'whitespace';
-  decimalSeparator?: '.' | ',';
-  headerLines?: number;
-  wavelengthColumn?: number;
-  transmissionColumn?: number;
-};
+/** The reader options the preview and the submission accept (the server's own schema). */
+export type ReaderOptions = z.input<typeof readerOptionsSchema>;
 
-export type Assumed = Required<ReaderOptions> & { columns?: string[] };
+/** What the reader assumed about a file (the engine's own type). */
+export type Assumed = ReadAssumptions;
 
 export type PreviewMetrics = {
   peakT: number;

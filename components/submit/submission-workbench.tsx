@@ -169,6 +169,38 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
     return rest;
   }), []);
 
+  /**
+   * Scans at several angles side by side in one file become a set, as if each
+   * pair had come in its own file: the same bytes under one name per pair, each
+   * read with its pair and given the angle its header names.
+   */
+  const splitPairs = useCallback((f: Added, angles: number[]) => {
+    const dot = f.name.lastIndexOf('.');
+    const stem = dot > 0 ? f.name.slice(0, dot) : f.name;
+    const ext = dot > 0 ? f.name.slice(dot) : '';
+    const names = angles.map((a, k) => (k === 0 ? f.name : `${stem}-pair${k + 1}-aoi${a}${ext}`));
+    setReader((r) => {
+      const { wavelengthColumn: _w, transmissionColumn: _t, ...kept } = r[f.name] ?? {};
+      const next = { ...r };
+      names.forEach((n, k) => (next[n] = { ...kept, pair: k + 1 }));
+      return next;
+    });
+    setAoi((a) => {
+      const next = { ...a };
+      names.forEach((n, k) => (next[n] = String(angles[k])));
+      return next;
+    });
+    for (let k = 1; k < names.length; k++) {
+      if (uppy.getFiles().some((u) => u.name === names[k])) continue;
+      try {
+        uppy.addFile({ name: names[k], type: f.data.type || 'text/plain', data: f.data, source: 'pairs' });
+      } catch {
+        // a restriction (too many files) is shown by the dashboard itself
+      }
+    }
+    editFile(f.name);
+  }, [uppy, editFile]);
+
   function applyFailure(status: number, failure: ApiFailure) {
     const names = (files.length ? files.map((f) => f.name) : filesMeta.map((f) => f.name));
     const forFile = fileFailure(failure, names);
@@ -341,6 +373,7 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
                   nominal={{ cwlNm: values.nominalCwlNm, fwhmNm: values.nominalFwhmNm }} lineIds={values.lines} />
               )}
               onRemove={() => uppy.removeFile(f.id)}
+              onSplitPairs={(angles) => splitPairs(f, angles)}
             />
           ))}
         </div>

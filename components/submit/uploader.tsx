@@ -7,12 +7,13 @@ import Dashboard from '@uppy/react/dashboard';
 import '@uppy/core/css/style.min.css';
 import '@uppy/dashboard/css/style.min.css';
 import './uploader.css';
+import { MAX_FILE_BYTES } from '@/lib/engine/reader/limits';
 
 export type UploadBody = { id: number; status: string; error?: string };
 export type SubmissionUppy = Uppy<Meta, UploadBody>;
 
-export const ALLOWED_TYPES = ['.csv', '.tsv', '.txt', '.dat', '.asc', 'text/*'];
-export const MAX_FILE_BYTES = 5 * 1024 * 1024;
+export const ALLOWED_TYPES = ['.csv', '.tsv', '.txt', '.dat', '.asc', '.jdx', '.dx', '.jcamp', 'text/*'];
+export { MAX_FILE_BYTES } from '@/lib/engine/reader/limits';
 export const MAX_FILES = 20;
 
 /** A thrown error carrying the error body of docs/api.md §Errors, so the page can map it back onto fields and files. */

@@ -1,4 +1,5 @@
 import { z } from './zod';
+import { MAX_COLUMNS } from '@/lib/engine/reader/limits';
 
 const finite = (what: string) => z.number({ error: `${what} must be a number` }).refine(Number.isFinite, `${what} must be finite`);
 
@@ -73,7 +74,10 @@ export const readerOptionsSchema = z
     delimiter: z.enum([',', ';', '\t', 'whitespace']).optional(),
     decimalSeparator: z.enum(['.', ',']).optional(),
     headerLines: z.number().int().min(0).max(1000).optional(),
-    wavelengthColumn: z.number().int().min(0).max(100).optional(),
-    transmissionColumn: z.number().int().min(0).max(100).optional(),
+    footerLines: z.number().int().min(0).max(1000).optional(),
+    block: z.number().int().min(1).max(1000).optional(),
+    pair: z.number().int().min(1).max(MAX_COLUMNS / 2).optional(),
+    wavelengthColumn: z.number().int().min(0).max(MAX_COLUMNS - 1, `Column indexes run from 0 to ${MAX_COLUMNS - 1}`).optional(),
+    transmissionColumn: z.number().int().min(0).max(MAX_COLUMNS - 1, `Column indexes run from 0 to ${MAX_COLUMNS - 1}`).optional(),
   })
   .strict();

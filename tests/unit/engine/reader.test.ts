@@ -131,8 +131,8 @@ describe('refusals name the line of the original file', () => {
   it('a row with a missing value', () => {
     expect(refusal('wl,t\n650,0.1\n652,0.5\n654\n656,0.5\n658,0.1\n').details[0].line).toBe(4);
   });
-  it('text after the data', () => {
-    expect(refusal('wl,t\n650,0.1\n652,0.5\n654,0.9\n656,0.5\n658,0.1\nEND\n').details[0].line).toBe(7);
+  it('a bad value in the last row is reported, not left out as a footer', () => {
+    expect(refusal('wl,t\n650,0.1\n652,0.5\n654,0.9\n656,0.5\n658,abc\nEnd of data\n').details[0].line).toBe(6);
   });
   it('binary content: NUL bytes (with their line) or mostly non-printable text', () => {
     const bytes = new TextEncoder().encode('wl,t\n650,0.1\n652,0.5\nxx');
