@@ -1,5 +1,6 @@
 import { NextResponse } from 'next/server';
 import { ZodError } from 'zod';
+import { isDatabaseUnavailable, RETRY_AFTER_SECONDS, UNAVAILABLE_SENTENCE } from './unavailable';
 
 export type ErrorDetail = { line?: number; field?: string; message: string };
 
@@ -45,6 +46,9 @@ export function errorResponse(err: unknown): NextResponse {
   if (err instanceof HttpError || carriesStatus(err)) {
     const e = err as StatusCarrier;
     return NextResponse.json({ error: e.message, details: Array.isArray(e.details) ? e.details : [] }, { status: e.status });
+  }
+  if (isDatabaseUnavailable(err)) {
+    return NextResponse.json({ error: UNAVAILABLE_SENTENCE, details: [] }, { status: 503, headers: { 'Retry-After': String(RETRY_AFTER_SECONDS) } });
   }
   console.error(err);
   return NextResponse.json({ error: 'Something went wrong on our side; nothing was saved.', details: [] }, { status: 500 });
