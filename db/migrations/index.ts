@@ -2,6 +2,7 @@ import type { MigrationContext } from '../migrator';
 import foundation from './0001_foundation';
 import catalogue from './0002_catalogue';
 import catalogueVersion from './0003_catalogue_version';
+import catalogueChanges from './0009_catalogue_changes';
 
 export type Migration = {
   name: string;
@@ -10,4 +11,4 @@ export type Migration = {
 };
 
 // Append new migrations here, in order; never edit one that has shipped.
-export const migrations: Migration[] = [foundation, catalogue, catalogueVersion];
+export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, catalogueChanges];
