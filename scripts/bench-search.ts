@@ -1,21 +1,14 @@
 // Fires a fixed mix of catalogue searches (text, parametric, fitness) at a running server
 // through HTTP and prints p50/p95 latency, throughput and the server's memory against the
 // targets: p95 ≤ 80 ms for each kind, server RSS ≤ 500 MB.
-//   npm run bench:search -- [--url http://127.0.0.1:3000] [--duration 20] [--connections 4] [--pid <server pid>] [--cold] [--kinds text,fitness]
+//   npm run bench:search -- [--url http://127.0.0.1:3000] [--duration 20] [--connections 4] [--pid <server pid>] [--cold] [--kinds text,fitness] [--churn 2]
+// --churn S verifies a curve every S seconds while it runs (a copy of a verified curve and its grid rows,
+// committed in one transaction through DATABASE_URL, the scale database's owner), as a busy library would.
 // The public catalogue's totals and facet counts are kept for 30 s per distinct search (paging and
 // re-sorting ask for them again); --cold makes every request a distinct search, so none is reused.
 // Point the server at the scale database first (npm run seed:scale, then DATABASE_URL=… next start).
-import { execFileSync } from 'node:child_process';
-import { readFileSync, readdirSync } from 'node:fs';
-import { createRequire } from 'node:module';
-
-// autocannon ships no types; this is the part of its API used here.
-type Instance = PromiseLike<{ errors: number; timeouts: number }> & {
-  on(event: 'response', fn: (client: unknown, status: number, bytes: number, ms: number) => void): void;
-};
-type Req = { method: string; path: string; setupRequest?: (req: { path: string }) => { path: string } };
-type Autocannon = (opts: { url: string; connections: number; duration: number; requests: Req[]; headers: Record<string, string> }) => Instance;
-const autocannon = createRequire(import.meta.url)('autocannon') as Autocannon;
+import pg from 'pg';
+import { autocannon, percentile, rssMb, serverPids as pidsServing } from './bench-support';
 
 function arg(name: string, fallback: string): string {
   const i = process.argv.indexOf(`--${name}`);
@@ -73,59 +66,7 @@ const KINDS: Record<string, string[]> = {
   ],
 };
 
-function percentile(sorted: number[], p: number): number {
-  if (sorted.length === 0) return NaN;
-  const i = Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1));
-  return sorted[i];
-}
-
-/** The process listening on the server's port, and its children (Next serves from a child). */
-function serverPids(): number[] {
-  const given = arg('pid', '');
-  const port = new URL(BASE).port || '80';
-  let root = given ? Number(given) : NaN;
-  if (!Number.isFinite(root)) {
-    try {
-      const out = execFileSync('ss', ['-ltnpH', `sport = :${port}`], { encoding: 'utf8' });
-      const m = out.match(/pid=(\d+)/);
-      if (m) root = Number(m[1]);
-    } catch {
-      return [];
-    }
-  }
-  if (!Number.isFinite(root)) return [];
-  const pids = [root];
-  // walk /proc for descendants
-  const parents = new Map<number, number>();
-  for (const d of readdirSync('/proc')) {
-    if (!/^\d+$/.test(d)) continue;
-    try {
-      const stat = readFileSync(`/proc/${d}/stat`, 'utf8');
-      const ppid = Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]);
-      parents.set(Number(d), ppid);
-    } catch {
-      /* gone */
-    }
-  }
-  for (let grew = true; grew; ) {
-    grew = false;
-    for (const [pid, ppid] of parents) if (pids.includes(ppid) && !pids.includes(pid)) (pids.push(pid), (grew = true));
-  }
-  return pids;
-}
-
-function rssMb(pids: number[]): number {
-  let kb = 0;
-  for (const pid of pids) {
-    try {
-      const m = readFileSync(`/proc/${pid}/status`, 'utf8').match(/VmRSS:\s+(\d+)/);
-      if (m) kb += Number(m[1]);
-    } catch {
-      /* exited */
-    }
-  }
-  return kb / 1024;
-}
+const serverPids = () => pidsServing(BASE, arg('pid', ''));
 
 async function run(kind: string, paths: string[], seconds: number) {
   const latencies: number[] = [];
@@ -151,7 +92,49 @@ async function run(kind: string, paths: string[], seconds: number) {
   return { kind, requests: latencies.length, rps: latencies.length / seconds, p50: percentile(latencies, 50), p95: percentile(latencies, 95), p99: percentile(latencies, 99), max: latencies[latencies.length - 1], errors: errors + result.errors + result.timeouts };
 }
 
+/** Every `seconds`, one transaction adds a verified curve (a copy of an existing one, with its grid rows). */
+function churn(seconds: number) {
+  const url = process.env.DATABASE_URL;
+  if (!url) throw new Error('--churn needs DATABASE_URL: the owner URL of the database the server reads');
+  const client = new pg.Client({ connectionString: url });
+  const made: number[] = [];
+  let timer: NodeJS.Timeout | undefined;
+  const once = async () => {
+    await client.query('BEGIN');
+    const { rows } = await client.query<{ id: number; src: number }>(
+      `WITH src AS (SELECT id FROM curves WHERE status = 'verified' ORDER BY random() LIMIT 1)
+       INSERT INTO curves (contributor_id, status, label, maker, lines, serial, notes, licence, method, instrument, aoi_deg,
+                           wavelength_nm, transmission, point_count, points_hash, peak_t, cwl_nm, fwhm_nm, mean_in_band_t, effective_bandwidth_nm,
+                           blocking_od, line_transmission, n_eff, verified_at)
+       SELECT contributor_id, 'verified', label || ' (bench churn)', maker, lines, serial, notes, licence, method, instrument, aoi_deg,
+              wavelength_nm, transmission, point_count, points_hash, peak_t, cwl_nm, fwhm_nm, mean_in_band_t, effective_bandwidth_nm,
+              blocking_od, line_transmission, n_eff, now()
+       FROM curves WHERE id = (SELECT id FROM src) RETURNING id, (SELECT id FROM src) AS src`,
+    );
+    const { id, src } = rows[0];
+    await client.query(`INSERT INTO curve_fitness (curve_id, line_id, level, primary_line, n_eff_default, direct, canonical)
+      SELECT $2, line_id, level, primary_line, n_eff_default, direct, canonical FROM curve_fitness WHERE curve_id = $1`, [src, id]);
+    await client.query(`INSERT INTO curve_fitness_fine (curve_id, line_id, fine) SELECT $2, line_id, fine FROM curve_fitness_fine WHERE curve_id = $1`, [src, id]);
+    await client.query('COMMIT');
+    made.push(id);
+  };
+  return {
+    async start() {
+      await client.connect();
+      timer = setInterval(() => void once().catch((err) => console.error('churn:', err.message)), seconds * 1000);
+    },
+    async stop() {
+      clearInterval(timer);
+      if (made.length) await client.query('DELETE FROM curves WHERE id = ANY($1::int[])', [made]);
+      await client.end();
+      return made.length;
+    },
+  };
+}
+
 async function main() {
+  const churnEvery = Number(arg('churn', '0'));
+  const churner = churnEvery > 0 ? churn(churnEvery) : null;
   const probe = await fetch(`${BASE}/api/curves?pageSize=1`).catch(() => null);
   if (!probe?.ok) throw new Error(`No catalogue at ${BASE} (GET /api/curves answered ${probe?.status ?? 'nothing'}); start the server first.`);
   const { total } = (await probe.json()) as { total: number };
@@ -159,6 +142,7 @@ async function main() {
   console.log(`bench:search against ${BASE}: ${total.toLocaleString('en-US')} verified curves, ${CONNECTIONS} connections, ${DURATION} s per kind (after ${WARMUP} s warm-up)${COLD ? ', every search distinct (no reused counts)' : ''}`);
   if (pids.length === 0) console.log('  (server process not found: pass --pid to report its memory)');
 
+  await churner?.start();
   let peak = rssMb(pids);
   const sampler = setInterval(() => (peak = Math.max(peak, rssMb(pids))), 250);
   const rows = [];
@@ -168,6 +152,7 @@ async function main() {
     rows.push(await run(kind, paths, DURATION));
   }
   clearInterval(sampler);
+  if (churner) console.log(`\nwhile ${await churner.stop()} curves were verified, one every ${churnEvery} s`);
   peak = Math.max(peak, rssMb(pids));
 
   const pad = (s: string, n: number) => s.padStart(n);

@@ -6,6 +6,7 @@ import mailQueueSessions from './0004_mail_queue_sessions';
 import appRoleAndGuards from './0005_app_role_and_guards';
 import coating from './0006_coating';
 import rateLimits from './0007_rate_limits';
+import catalogueChanges from './0009_catalogue_changes';
 
 export type Migration = {
   name: string;
@@ -14,4 +15,4 @@ export type Migration = {
 };
 
 // Append new migrations here, in order; never edit one that has shipped.
-export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, coating, rateLimits];
+export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, coating, rateLimits, catalogueChanges];

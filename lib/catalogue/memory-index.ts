@@ -3,9 +3,11 @@
  * reads: each verified curve's filter columns, and, loaded on first use, the
  * fitness grid of one (line, level) at a time. PostgreSQL stays the source of
  * truth: every search first reads `catalogue_version` (bumped at the commit of
- * any change to curves or their grid rows, migration 0003) and drops the copy
- * when it has moved, and every load reads the version in the same statement as
- * the rows, so a copy never mixes two states of the library.
+ * any change to curves or their grid rows, migration 0003) and, when it has
+ * moved, brings the copy up to date by the curves that changed (logged per
+ * version, migration 0009; see refreshSnapshot below); every read carries the
+ * version in the same statement as the rows, so a copy never mixes two states
+ * of the library.
  *
  * Why: τ for every curve of a line is a short dot product per curve (see
  * fitness-grid.ts). PostgreSQL spends about 1 µs per array subscript on it,
@@ -79,6 +81,9 @@ const BUDGET_BYTES = Number(process.env.BANDCONE_FITNESS_CACHE_MB ?? 160) * 1024
 
 const state = globalThis as unknown as { bandconeCatalogueCopy?: Promise<Snapshot> };
 
+/** How the copy has been kept up to date in this process (for the benchmark and tests). */
+export const copyStats = { fullLoads: 0, patches: 0, patchedCurves: 0 };
+
 const EDGES = FWHM_BUCKETS.slice(1).map(([a]) => a);
 
 /** PostgreSQL's width_bucket(x, edges): how many edges are ≤ x. */
@@ -98,31 +103,34 @@ type SnapshotRow = {
   instrument: string; contributor: string; lines: string;
 };
 
+const SNAPSHOT_COLUMNS = `c.id, c.cwl_nm AS cwl, c.fwhm_nm AS fwhm, c.peak_t AS peak, c.aoi_deg AS aoi,
+            (extract(epoch FROM c.verified_at) * 1000000)::float8 AS verified, c.instrument, c.contributor_id AS contributor,
+            array_to_string(c.lines, ' ') AS lines`;
+
 async function loadSnapshot(): Promise<Snapshot> {
   // One statement, so the version and the rows are of the same moment (the LEFT JOIN from the
   // version row answers even for an empty catalogue); the columns all sit in the covering
   // indexes, so it is an index-only scan. Many plain rows: node-postgres copes far better with
   // them than with one row of several megabytes.
   const rows = await db().sequelize.query<SnapshotRow>(
-    `SELECT k.version::text AS v, c.id, c.cwl_nm AS cwl, c.fwhm_nm AS fwhm, c.peak_t AS peak, c.aoi_deg AS aoi,
-            (extract(epoch FROM c.verified_at) * 1000000)::float8 AS verified, c.instrument, c.contributor_id AS contributor,
-            array_to_string(c.lines, ' ') AS lines
+    `SELECT k.version::text AS v, ${SNAPSHOT_COLUMNS}
      FROM catalogue_version k LEFT JOIN curves c ON c.status = 'verified'`,
     { type: QueryTypes.SELECT },
   );
-  const version = rows[0]?.v ?? '0';
-  const sorted = rows.filter((r) => r.id !== null).sort((a, z) => a.id! - z.id!);
-  const n = sorted.length;
-  const column = (pick: (r: SnapshotRow) => number | null) => Float64Array.from(sorted, (r) => pick(r) ?? NaN);
-  const s: Snapshot = {
+  copyStats.fullLoads++;
+  return buildSnapshot(rows[0]?.v ?? '0', rows.filter((r) => r.id !== null).sort((a, z) => a.id! - z.id!));
+}
+
+function emptySnapshot(version: string, n: number): Snapshot {
+  return {
     version,
     n,
-    ids: Int32Array.from(sorted, (r) => r.id!),
-    cwl: column((r) => r.cwl),
-    fwhm: column((r) => r.fwhm),
-    peak: column((r) => r.peak),
-    aoi: column((r) => r.aoi),
-    verifiedAt: column((r) => r.verified),
+    ids: new Int32Array(n),
+    cwl: new Float64Array(n),
+    fwhm: new Float64Array(n),
+    peak: new Float64Array(n),
+    aoi: new Float64Array(n),
+    verifiedAt: new Float64Array(n),
     instrument: new Uint8Array(n),
     contributor: new Int32Array(n),
     contributors: [],
@@ -135,26 +143,67 @@ async function loadSnapshot(): Promise<Snapshot> {
     fine: new Map(),
     used: new Map(),
   };
-  const instruments = sorted.map((r) => r.instrument);
-  const contributors = sorted.map((r) => r.contributor);
-  const lines = sorted.map((r) => r.lines);
-  const who = new Map<string, number>();
-  const sets = new Map<string, number>();
-  for (let i = 0; i < n; i++) {
-    s.instrument[i] = Math.max(0, (INSTRUMENTS as readonly string[]).indexOf(instruments[i]));
-    let c = who.get(contributors[i]);
-    if (c === undefined) who.set(contributors[i], (c = s.contributors.push(contributors[i]) - 1));
-    s.contributor[i] = c;
-    let l = sets.get(lines[i]);
-    if (l === undefined) sets.set(lines[i], (l = s.lineSets.push(lines[i] ? lines[i].split(' ') : []) - 1));
-    s.lineSet[i] = l;
-    s.firstLine[i] = (LINE_IDS as readonly string[]).indexOf(s.lineSets[l][0] ?? '');
-    for (const id of s.lineSets[l]) {
-      const k = (LINE_IDS as readonly string[]).indexOf(id);
-      if (k >= 0) s.lineMask[i] |= 1 << k;
-    }
-    s.fwhmBucket[i] = Number.isNaN(s.fwhm[i]) ? 0 : widthBucket(s.fwhm[i]) + 1;
+}
+
+/** Interns contributors and line sets as a snapshot is filled, so equal ones share one index. */
+function interner(s: Snapshot) {
+  const who = new Map(s.contributors.map((c, k) => [c, k]));
+  const sets = new Map(s.lineSets.map((l, k) => [l.join(' '), k]));
+  return {
+    contributor(id: string): number {
+      let c = who.get(id);
+      if (c === undefined) who.set(id, (c = s.contributors.push(id) - 1));
+      return c;
+    },
+    lineSet(lines: string): number {
+      let l = sets.get(lines);
+      if (l === undefined) sets.set(lines, (l = s.lineSets.push(lines ? lines.split(' ') : []) - 1));
+      return l;
+    },
+  };
+}
+
+/** Row i of the copy from a row read from PostgreSQL. */
+function fillRow(s: Snapshot, i: number, r: SnapshotRow, names: ReturnType<typeof interner>) {
+  s.ids[i] = r.id!;
+  s.cwl[i] = r.cwl ?? NaN;
+  s.fwhm[i] = r.fwhm ?? NaN;
+  s.peak[i] = r.peak ?? NaN;
+  s.aoi[i] = r.aoi ?? NaN;
+  s.verifiedAt[i] = r.verified ?? NaN;
+  s.instrument[i] = Math.max(0, (INSTRUMENTS as readonly string[]).indexOf(r.instrument));
+  s.contributor[i] = names.contributor(r.contributor);
+  const l = names.lineSet(r.lines);
+  s.lineSet[i] = l;
+  s.firstLine[i] = (LINE_IDS as readonly string[]).indexOf(s.lineSets[l][0] ?? '');
+  s.lineMask[i] = 0;
+  for (const id of s.lineSets[l]) {
+    const k = (LINE_IDS as readonly string[]).indexOf(id);
+    if (k >= 0) s.lineMask[i] |= 1 << k;
   }
+  s.fwhmBucket[i] = Number.isNaN(s.fwhm[i]) ? 0 : widthBucket(s.fwhm[i]) + 1;
+}
+
+/** Row j of `to` is row i of `from`. */
+function copyRow(from: Snapshot, i: number, to: Snapshot, j: number) {
+  to.ids[j] = from.ids[i];
+  to.cwl[j] = from.cwl[i];
+  to.fwhm[j] = from.fwhm[i];
+  to.peak[j] = from.peak[i];
+  to.aoi[j] = from.aoi[i];
+  to.verifiedAt[j] = from.verifiedAt[i];
+  to.instrument[j] = from.instrument[i];
+  to.contributor[j] = from.contributor[i];
+  to.lineSet[j] = from.lineSet[i];
+  to.firstLine[j] = from.firstLine[i];
+  to.lineMask[j] = from.lineMask[i];
+  to.fwhmBucket[j] = from.fwhmBucket[i];
+}
+
+function buildSnapshot(version: string, sorted: SnapshotRow[]): Snapshot {
+  const s = emptySnapshot(version, sorted.length);
+  const names = interner(s);
+  sorted.forEach((r, i) => fillRow(s, i, r, names));
   return s;
 }
 
@@ -162,13 +211,15 @@ async function loadSnapshot(): Promise<Snapshot> {
 export async function catalogueCopy(): Promise<Snapshot> {
   const version = await currentVersion();
   const held = state.bandconeCatalogueCopy;
+  let previous: Snapshot | null = null;
   if (held) {
     const s = await held.catch(() => null);
     if (s && s.version === version) return s;
     // a load already under way for this version is shared
     if (state.bandconeCatalogueCopy !== held) return catalogueCopy();
+    previous = s;
   }
-  const loading = loadSnapshot();
+  const loading = previous ? refreshSnapshot(previous) : loadSnapshot();
   state.bandconeCatalogueCopy = loading;
   loading.catch(() => {
     if (state.bandconeCatalogueCopy === loading) state.bandconeCatalogueCopy = undefined;
@@ -364,4 +415,171 @@ export function gridBlock(s: Snapshot, lineId: string, level: number): Promise<G
 /** The fine level of one line's off-normal curves, loaded on first use. */
 export function fineBlock(s: Snapshot, lineId: string): Promise<FineBlock> {
   return cached(s, s.fine, `fine|${lineId}`, () => oneAtATime(() => loadFine(s, lineId)));
+}
+
+/* ---------------------------------------------------------------------------------------------
+ * Keeping the copy up to date by the curves that changed (migration 0009 logs them per version).
+ *
+ * A copy at version V and the library at W > V differ only in the curves logged for versions
+ * V+1 … W. Each of those is taken out of the copy and, if it is verified now, read again with its
+ * grid rows, all at version W; the rest of the copy, and of every grid block already held, is
+ * carried over. So verifying a curve costs a few small reads instead of the whole library.
+ * When the log does not reach back to V, or too many curves changed, the copy is read again whole.
+ * ------------------------------------------------------------------------------------------- */
+
+const PATCH_MAX = () => Number(process.env.BANDCONE_COPY_PATCH_MAX ?? 5000);
+
+type ChangeRow = SnapshotRow & { versions: string; changed: number | null };
+
+async function refreshSnapshot(old: Snapshot): Promise<Snapshot> {
+  const limit = PATCH_MAX();
+  const rows = await db().sequelize.query<ChangeRow>(
+    `WITH k AS (SELECT version FROM catalogue_version),
+          ch AS (SELECT DISTINCT x.curve_id FROM catalogue_changes x, k WHERE x.version > $1 AND x.version <= k.version LIMIT $2),
+          logged AS (SELECT count(DISTINCT x.version) AS n FROM catalogue_changes x, k WHERE x.version > $1 AND x.version <= k.version)
+     SELECT k.version::text AS v, (SELECT n FROM logged)::text AS versions, ch.curve_id AS changed, ${SNAPSHOT_COLUMNS}
+     FROM k LEFT JOIN ch ON true LEFT JOIN curves c ON c.id = ch.curve_id AND c.status = 'verified'`,
+    { bind: [old.version, limit + 1], type: QueryTypes.SELECT },
+  );
+  const version = rows[0]?.v ?? '0';
+  const changed = new Set(rows.filter((r) => r.changed !== null).map((r) => r.changed!));
+  // Every version in between must have left its curves in the log (each bump logs at least one).
+  const complete = Number(rows[0]?.versions ?? 0) === Number(version) - Number(old.version);
+  if (!complete || changed.size > limit || Number(version) < Number(old.version)) return loadSnapshot();
+
+  const fresh = rows.filter((r) => r.id !== null).sort((a, z) => a.id! - z.id!);
+  const { s, from } = mergeSnapshot(old, version, changed, fresh);
+  const added = Int32Array.from(fresh, (r) => r.id!);
+  // Grid blocks already held are carried over; one that cannot be (still loading, or the library
+  // moved again meanwhile) is left out and read on first use, as it would be in a new copy.
+  const carry = async <T extends { bytes: number }>(map: Map<string, Promise<T>>, into: Map<string, Promise<T>>, patch: (block: T, key: string) => Promise<T>) => {
+    for (const [key, pending] of map) {
+      // `used` names the blocks that have finished loading (and are within the memory budget).
+      if (!old.used.has(key)) continue;
+      try {
+        const next = await patch(await pending, key);
+        into.set(key, Promise.resolve(next));
+        s.used.set(key, next.bytes);
+      } catch (err) {
+        if (!(err instanceof StaleCopy)) throw err;
+      }
+    }
+  };
+  await carry(old.blocks, s.blocks, (b, key) => {
+    const [lineId, level] = key.split('|');
+    return patchBlock(b, s, from, added, lineId, Number(level));
+  });
+  await carry(old.fine, s.fine, (b, key) => patchFine(b, s, from, added, key.slice('fine|'.length)));
+  copyStats.patches++;
+  copyStats.patchedCurves += changed.size;
+  return s;
+}
+
+/**
+ * The copy at `version`: the old rows of unchanged curves and the fresh rows, in id order.
+ * `from[j]` is the old row that new row j came from, or -1 for a fresh one.
+ */
+export function mergeSnapshot(old: Snapshot, version: string, changed: Set<number>, fresh: SnapshotRow[]): { s: Snapshot; from: Int32Array } {
+  let kept = 0;
+  for (let i = 0; i < old.n; i++) if (!changed.has(old.ids[i])) kept++;
+  const s = emptySnapshot(version, kept + fresh.length);
+  s.contributors = [...old.contributors];
+  s.lineSets = [...old.lineSets];
+  const names = interner(s);
+  const from = new Int32Array(s.n);
+  let i = 0;
+  let f = 0;
+  for (let j = 0; j < s.n; j++) {
+    while (i < old.n && changed.has(old.ids[i])) i++;
+    if (f < fresh.length && (i >= old.n || fresh[f].id! < old.ids[i])) {
+      fillRow(s, j, fresh[f++], names);
+      from[j] = -1;
+    } else {
+      copyRow(old, i, s, j);
+      from[j] = i++;
+    }
+  }
+  return { s, from };
+}
+
+/** Reads the grid rows of the fresh curves for one block, at the copy's version. */
+async function freshRows(s: Snapshot, table: 'curve_fitness' | 'curve_fitness_fine', columns: string, where: string, bind: unknown[], added: Int32Array) {
+  if (added.length === 0) return [];
+  const rows = await db().sequelize.query<BlockRow>(
+    `SELECT k.version::text AS v, f.* FROM catalogue_version k LEFT JOIN LATERAL (
+       SELECT curve_id AS id, ${columns} FROM ${table} WHERE ${where} AND curve_id = ANY($${bind.length + 1}::int[]) ORDER BY curve_id
+     ) f ON true`,
+    { bind: [...bind, Array.from(added)], type: QueryTypes.SELECT },
+  );
+  if ((rows[0]?.v ?? '0') !== s.version) throw new StaleCopy();
+  const find = rowIndex(s);
+  return rows.filter((r) => r.id !== null).map((r) => ({ r, i: find(r.id!) })).filter((x) => x.i >= 0);
+}
+
+async function patchBlock(b: GridBlock, s: Snapshot, from: Int32Array, added: Int32Array, lineId: string, level: number): Promise<GridBlock> {
+  const fresh = await freshRows(s, 'curve_fitness', `n_eff_default AS neff, array_to_string(direct, ',') AS sums, array_to_string(canonical, ',') AS canonical`, 'line_id = $1 AND level = $2', [lineId, level], added);
+  const freshAt = new Map(fresh.map((x) => [x.i, x.r]));
+  const rowOf = new Int32Array(s.n).fill(-1);
+  const members: number[] = [];
+  const neff: number[] = [];
+  const canonOf: number[] = [];
+  const direct = rowsOf(LEVEL_LENGTH);
+  const canonical = rowsOf(LEVEL_LENGTH);
+  // New rows in copy order, as a whole read would give them.
+  for (let j = 0; j < s.n; j++) {
+    const i = from[j];
+    const oldRow = i >= 0 ? b.rowOf[i] : -1;
+    const r = i < 0 ? freshAt.get(j) : undefined;
+    if (oldRow < 0 && !r) continue;
+    rowOf[j] = members.length;
+    members.push(j);
+    const d = direct.next();
+    if (r) {
+      neff.push(r.neff);
+      if (readIntegerList(r.sums, d.arr, d.at) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a fitness level of the wrong length`);
+      if (r.canonical) {
+        const k = canonical.next();
+        if (readIntegerList(r.canonical, k.arr, k.at) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a canonical level of the wrong length`);
+        canonOf.push(members.length - 1);
+      }
+    } else {
+      neff.push(b.nEffDefault[oldRow]);
+      d.arr.set(b.direct.subarray(oldRow * LEVEL_LENGTH, (oldRow + 1) * LEVEL_LENGTH), d.at);
+      if (b.canonRow[oldRow] >= 0) {
+        const k = canonical.next();
+        const c = b.canonRow[oldRow];
+        k.arr.set(b.canonical.subarray(c * LEVEL_LENGTH, (c + 1) * LEVEL_LENGTH), k.at);
+        canonOf.push(members.length - 1);
+      }
+    }
+  }
+  const canonRow = new Int32Array(members.length).fill(-1);
+  canonOf.forEach((row, k) => (canonRow[row] = k));
+  const block = { rowOf, members: Int32Array.from(members), direct: direct.done(), canonRow, canonical: canonical.done(), nEffDefault: Float64Array.from(neff) };
+  const bytes = block.rowOf.byteLength + block.members.byteLength + block.direct.byteLength + canonRow.byteLength + block.canonical.byteLength + block.nEffDefault.byteLength;
+  return { ...block, bytes };
+}
+
+async function patchFine(b: FineBlock, s: Snapshot, from: Int32Array, added: Int32Array, lineId: string): Promise<FineBlock> {
+  const width = FINE_INTERVALS + 1;
+  const fresh = await freshRows(s, 'curve_fitness_fine', `array_to_string(fine, ',') AS sums`, 'line_id = $1', [lineId], added);
+  const freshAt = new Map(fresh.map((x) => [x.i, x.r]));
+  const rowOf = new Int32Array(s.n).fill(-1);
+  const sums = rowsOf(width);
+  let count = 0;
+  for (let j = 0; j < s.n; j++) {
+    const i = from[j];
+    const oldRow = i >= 0 ? b.rowOf[i] : -1;
+    const r = i < 0 ? freshAt.get(j) : undefined;
+    if (oldRow < 0 && !r) continue;
+    rowOf[j] = count++;
+    const d = sums.next();
+    if (r) {
+      if (readIntegerList(r.sums, d.arr, d.at) !== width) throw new Error(`curve ${r.id}: a fine level of the wrong length`);
+    } else {
+      d.arr.set(b.sums.subarray(oldRow * width, (oldRow + 1) * width), d.at);
+    }
+  }
+  const all = sums.done();
+  return { rowOf, sums: all, bytes: rowOf.byteLength + all.byteLength };
 }

@@ -1,6 +1,7 @@
 import { NextResponse } from 'next/server';
 import { ZodError } from 'zod';
 import { readCapped, parseJsonText, JSON_BODY_MAX } from './body';
+import { isDatabaseUnavailable, RETRY_AFTER_SECONDS, UNAVAILABLE_SENTENCE } from './unavailable';
 
 export type ErrorDetail = { line?: number; field?: string; message: string };
 
@@ -50,6 +51,9 @@ export function errorResponse(err: unknown): NextResponse {
   // A path or query with broken percent-encoding (e.g. %E0%A4%A) fails to decode: the client's fault.
   if (err instanceof URIError) {
     return NextResponse.json({ error: 'The address holds broken percent-encoding; encode it as UTF-8.', details: [] }, { status: 400 });
+  }
+  if (isDatabaseUnavailable(err)) {
+    return NextResponse.json({ error: UNAVAILABLE_SENTENCE, details: [] }, { status: 503, headers: { 'Retry-After': String(RETRY_AFTER_SECONDS) } });
   }
   console.error(err);
   return NextResponse.json({ error: 'Something went wrong on our side; nothing was saved.', details: [] }, { status: 500 });

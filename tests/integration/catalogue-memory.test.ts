@@ -4,9 +4,10 @@ import { closeSequelize, getSequelize } from '@/db/connection';
 import { searchCurves, type SearchResult } from '@/lib/catalogue/search';
 import { parseSearchParams } from '@/lib/catalogue/search-params';
 import { answeredInMemory } from '@/lib/catalogue/memory-search';
-import { catalogueCopy, currentVersion, dropCatalogueCopy } from '@/lib/catalogue/memory-index';
+import { catalogueCopy, copyStats, currentVersion, dropCatalogueCopy } from '@/lib/catalogue/memory-index';
 import type { Actor } from '@/lib/auth/actor';
 import { binaryArraySql, readFloat8Array } from '@/lib/catalogue/binary-array';
+import { forgetCounts } from '@/lib/catalogue/count-cache';
 
 afterAll(() => closeSequelize());
 
@@ -177,6 +178,88 @@ describe('the copy follows the library', () => {
     const gone = await searchCurves(null, p);
     expect(gone.total).toBe(totalBefore);
     expect(gone.items[0].id).toBe(best.id);
+  });
+});
+
+describe('the copy is brought up to date by the curves that changed', () => {
+  const sequelize = getSequelize();
+
+  /** A verified copy of curve `of` with its grid rows, committed in one transaction (as a verification is). */
+  async function verifiedCopyOf(of: number): Promise<number> {
+    return sequelize.transaction(async (transaction) => {
+      const [{ id }] = await sequelize.query<{ id: number }>(
+        `INSERT INTO curves (submission_id, file_id, contributor_id, status, label, maker, lines, serial, notes, licence, method, instrument, aoi_deg,
+                             wavelength_nm, transmission, point_count, points_hash, peak_t, cwl_nm, fwhm_nm, mean_in_band_t, effective_bandwidth_nm,
+                             blocking_od, line_transmission, n_eff, verified_at)
+         SELECT NULL, NULL, contributor_id, 'verified', label || ' (patch test)', maker, lines, serial, notes, licence, method, instrument, aoi_deg,
+                wavelength_nm, transmission, point_count, points_hash, peak_t, cwl_nm, fwhm_nm, mean_in_band_t, effective_bandwidth_nm,
+                blocking_od, line_transmission, n_eff, now()
+         FROM curves WHERE id = $1 RETURNING id`,
+        { bind: [of], type: QueryTypes.SELECT, transaction },
+      );
+      await sequelize.query(
+        `INSERT INTO curve_fitness (curve_id, line_id, level, primary_line, n_eff_default, direct, canonical)
+         SELECT $2, line_id, level, primary_line, n_eff_default, direct, canonical FROM curve_fitness WHERE curve_id = $1`,
+        { bind: [of, id], transaction },
+      );
+      await sequelize.query(
+        `INSERT INTO curve_fitness_fine (curve_id, line_id, fine) SELECT $2, line_id, fine FROM curve_fitness_fine WHERE curve_id = $1`,
+        { bind: [of, id], transaction },
+      );
+      return id;
+    });
+  }
+
+  it('adds, removes and re-reads curves without reading the library again, and answers exactly as SQL', async () => {
+    // sources: an on-axis and an off-normal verified curve (the latter has fine rows)
+    const [onAxis] = await sequelize.query<{ id: number }>(`SELECT id FROM curves WHERE status = 'verified' AND aoi_deg = 0 AND 'Ha' = ANY(lines) ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT });
+    const [offNormal] = await sequelize.query<{ id: number }>(`SELECT c.id FROM curves c WHERE c.status = 'verified' AND c.aoi_deg > 0 AND EXISTS (SELECT 1 FROM curve_fitness_fine f WHERE f.curve_id = c.id) ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT });
+    expect(onAxis && offNormal).toBeTruthy();
+    const removed = await verifiedCopyOf(onAxis.id);
+    const touched = await verifiedCopyOf(offNormal.id);
+    const made: number[] = [removed, touched];
+    try {
+      dropCatalogueCopy();
+      // warm every block these searches read, so the patch has blocks to carry over
+      for (const qs of SEARCHES) await searchCurves(null, parseSearchParams(new URLSearchParams(qs)));
+      const before = { ...copyStats };
+      const copyBefore = await catalogueCopy();
+
+      await sequelize.query(`DELETE FROM curves WHERE id = $1`, { bind: [removed] });
+      made.push(await verifiedCopyOf(offNormal.id), await verifiedCopyOf(onAxis.id));
+      await sequelize.query(`UPDATE curve_fitness SET level = level WHERE curve_id = $1`, { bind: [touched] });
+      // the SQL path keeps counts for 30 s; the app forgets them when it changes the library, so does this test
+      forgetCounts();
+
+      for (const qs of SEARCHES) {
+        const p = parseSearchParams(new URLSearchParams(qs));
+        expect(seen(await searchCurves(null, p)), qs).toEqual(seen(await searchCurves(null, p, { memory: false })));
+      }
+      const copyAfter = await catalogueCopy();
+      expect(copyAfter.n).toBe(copyBefore.n + 1);
+      expect(Array.from(copyAfter.ids)).not.toContain(removed);
+      expect(copyStats.fullLoads).toBe(before.fullLoads);
+      expect(copyStats.patches).toBeGreaterThan(before.patches);
+      // the blocks came along instead of being read again
+      expect(copyAfter.used.size).toBeGreaterThan(0);
+    } finally {
+      await sequelize.query(`DELETE FROM curves WHERE id = ANY($1::int[])`, { bind: [made] });
+      forgetCounts();
+    }
+    const p = parseSearchParams(new URLSearchParams(SEARCHES[0]));
+    expect(seen(await searchCurves(null, p))).toEqual(seen(await searchCurves(null, p, { memory: false })));
+  });
+
+  it('a copy older than the change log reaches is read again whole', async () => {
+    const copy = await catalogueCopy();
+    const before = copyStats.fullLoads;
+    // pretend the log lost this copy's next version, as pruning would
+    await sequelize.query(`UPDATE catalogue_version SET version = version + 1`);
+    forgetCounts();
+    const p = parseSearchParams(new URLSearchParams(SEARCHES[4]));
+    expect(seen(await searchCurves(null, p))).toEqual(seen(await searchCurves(null, p, { memory: false })));
+    expect((await catalogueCopy()).version).not.toBe(copy.version);
+    expect(copyStats.fullLoads).toBe(before + 1);
   });
 });
 

@@ -1,0 +1,131 @@
+// Fifty visitors on a realistic mix, each thinking about a second between requests (about
+// 50 requests a second in all), then the rate raised until p95 passes 500 ms.
+//   npm run check:load -- [--url http://127.0.0.1:3000] [--visitors 50] [--seconds 60] [--pid <server pid>] [--no-ramp]
+// Point the server at the 100 000-curve database first (npm run seed:scale; DEVELOPERS.md says how).
+// Targets on the 2-core machine: p95 ≤ 150 ms for pages and searches, ≤ 50 ms for the model call
+// on a stored curve, no errors, server memory ≤ 1 GB.
+import { autocannon, memorySampler, percentile, serverPids, type AutocannonRequest } from './bench-support';
+
+function arg(name: string, fallback: string): string {
+  const i = process.argv.indexOf(`--${name}`);
+  return i >= 0 && process.argv[i + 1] ? process.argv[i + 1] : fallback;
+}
+const BASE = arg('url', 'http://127.0.0.1:3000').replace(/\/$/, '');
+const VISITORS = Number(arg('visitors', '50'));
+const SECONDS = Number(arg('seconds', '60'));
+const RAMP = !process.argv.includes('--no-ramp');
+const THINK_S = 1;
+const TARGET_MEMORY_MB = 1024;
+const SATURATION_P95_MS = 500;
+
+// Optics of the demo world's own line-up (no pair here stands for a real instrument).
+const OPTICS = [
+  { fNumber: 2.5, obstruction: 0.36 },
+  { fNumber: 1.8, obstruction: 0.42 },
+  { fNumber: 3.6, obstruction: 0 },
+  { fNumber: 5, obstruction: 0.25 },
+];
+const WORDS = ['hydrogen', 'oxygen+3nm', 'meadow', 'sulphur+spectrograph', 'harbour+lantern', 'beacon', 'quarry+heath', 'tarn+5nm'];
+const LINES = ['Ha', 'OIII', 'SII-671', 'Hb'];
+
+type Kind = { name: string; share: number; target: number; requests: (ids: number[]) => AutocannonRequest[] };
+const pick = <T,>(xs: T[], i: number) => xs[i % xs.length];
+
+const KINDS: Kind[] = [
+  { name: 'word search', share: 10, target: 150, requests: () => WORDS.map((w) => ({ method: 'GET', path: `/api/curves?q=${w}` })) },
+  {
+    name: 'fitness search', share: 10, target: 150,
+    requests: () => OPTICS.flatMap((o, i) => [0.5, 0.8].map((t) => ({ method: 'GET', path: `/api/curves?line=${pick(LINES, i)}&fNumber=${o.fNumber}&obstruction=${o.obstruction}&minThroughput=${t}&sort=throughput` }))),
+  },
+  { name: 'curve page', share: 10, target: 150, requests: (ids) => ids.slice(0, 40).map((id) => ({ method: 'GET', path: `/curves/${id}` })) },
+  { name: 'points', share: 8, target: 150, requests: (ids) => ids.slice(40, 80).map((id) => ({ method: 'GET', path: `/api/curves/${id}/points` })) },
+  {
+    name: 'model call', share: 7, target: 50,
+    requests: (ids) => ids.slice(0, 40).map((id, i) => ({
+      method: 'POST', path: '/api/model/cone', headers: { 'content-type': 'application/json' },
+      body: JSON.stringify({ curveId: id, optic: pick(OPTICS, i), nEff: 2 }),
+    })),
+  },
+  { name: 'CSV', share: 5, target: 150, requests: (ids) => ids.slice(80, 120).map((id) => ({ method: 'GET', path: `/api/curves/${id}/csv` })) },
+];
+
+async function runKind(kind: Kind, ids: number[], visitors: number, ratePerVisitor: number, seconds: number) {
+  const latencies: number[] = [];
+  let errors = 0;
+  const connections = Math.max(1, Math.round((visitors * kind.share) / 50));
+  const instance = autocannon({
+    url: BASE, connections, duration: seconds, timeout: 10,
+    overallRate: Math.max(1, Math.round(connections * ratePerVisitor)),
+    requests: kind.requests(ids), headers: { accept: 'application/json,text/html' },
+  });
+  instance.on('response', (_c, status, _b, ms) => {
+    latencies.push(ms);
+    if (status >= 400) errors++;
+  });
+  const result = await instance;
+  latencies.sort((a, b) => a - b);
+  return {
+    kind, requests: latencies.length, rps: latencies.length / seconds,
+    p50: percentile(latencies, 50), p95: percentile(latencies, 95), p99: percentile(latencies, 99),
+    errors: errors + result.errors + result.timeouts, all: latencies,
+  };
+}
+
+async function round(ids: number[], visitors: number, ratePerVisitor: number, seconds: number) {
+  return Promise.all(KINDS.map((k) => runKind(k, ids, visitors, ratePerVisitor, seconds)));
+}
+
+async function main() {
+  const probe = await fetch(`${BASE}/api/curves?pageSize=100&sort=newest`).catch(() => null);
+  if (!probe?.ok) throw new Error(`No catalogue at ${BASE}; start the server first.`);
+  const first = (await probe.json()) as { total: number; items: { id: number }[] };
+  const more = (await (await fetch(`${BASE}/api/curves?pageSize=100&sort=newest&page=50`)).json()) as { items: { id: number }[] };
+  const ids = [...first.items, ...more.items].map((c) => c.id);
+  const pids = serverPids(BASE, arg('pid', ''));
+  console.log(`check:load against ${BASE}: ${first.total.toLocaleString('en-US')} verified curves; ${VISITORS} visitors, ${THINK_S} s thinking, ${SECONDS} s`);
+  if (!pids.length) console.log('  (server process not found: pass --pid to report its memory)');
+
+  await round(ids, VISITORS, 1 / THINK_S, 5); // warm-up: the catalogue copy, compiled routes
+  const memory = memorySampler(pids);
+  const rows = await round(ids, VISITORS, 1 / THINK_S, SECONDS);
+  const peak = memory.stop();
+
+  const pad = (s: string, n: number) => s.padStart(n);
+  console.log(`\n${'kind'.padEnd(15)}${pad('requests', 9)}${pad('req/s', 7)}${pad('p50', 7)}${pad('p95', 7)}${pad('p99', 7)}${pad('errors', 7)}  target p95`);
+  let ok = true;
+  for (const r of rows) {
+    const pass = r.p95 <= r.kind.target && r.errors === 0;
+    ok &&= pass;
+    console.log(`${r.kind.name.padEnd(15)}${pad(String(r.requests), 9)}${pad(r.rps.toFixed(1), 7)}${pad(r.p50.toFixed(0), 7)}${pad(r.p95.toFixed(0), 7)}${pad(r.p99.toFixed(0), 7)}${pad(String(r.errors), 7)}  ≤ ${r.kind.target} ms ${pass ? 'PASS' : 'FAIL'}`);
+  }
+  const total = rows.reduce((a, r) => a + r.rps, 0);
+  console.log(`all kinds: ${total.toFixed(1)} requests a second`);
+  if (pids.length) {
+    const pass = peak <= TARGET_MEMORY_MB;
+    ok &&= pass;
+    console.log(`server memory: ${memory.start.toFixed(0)} MB at start, ${peak.toFixed(0)} MB at most  ≤ ${TARGET_MEMORY_MB} MB ${pass ? 'PASS' : 'FAIL'}`);
+  }
+
+  if (RAMP) {
+    console.log(`\nraising the rate until p95 of all requests passes ${SATURATION_P95_MS} ms (15 s a step):`);
+    let saturation = 0;
+    for (let factor = 2; factor <= 12; factor += 2) {
+      const step = await round(ids, VISITORS, factor / THINK_S, 15);
+      const all = step.flatMap((r) => r.all).sort((a, b) => a - b);
+      const rps = step.reduce((a, r) => a + r.rps, 0);
+      const p95 = percentile(all, 95);
+      const errors = step.reduce((a, r) => a + r.errors, 0);
+      console.log(`  asked ${VISITORS * factor} req/s: served ${rps.toFixed(0)} req/s, p95 ${p95.toFixed(0)} ms, errors ${errors}`);
+      if (p95 > SATURATION_P95_MS || errors > 0) break;
+      saturation = rps;
+    }
+    console.log(`saturation: about ${saturation.toFixed(0)} requests a second before p95 passes ${SATURATION_P95_MS} ms`);
+  }
+  console.log(ok ? '\ncheck:load: every target met' : '\ncheck:load: SOME TARGETS MISSED');
+  process.exitCode = ok ? 0 : 1;
+}
+
+main().catch((err) => {
+  console.error(err instanceof Error ? err.message : err);
+  process.exit(2);
+});
