@@ -12,6 +12,8 @@ import { fileURLToPath } from 'node:url';
 import next from 'next';
 import { forwardedChain, trustedProxyCount } from './lib/http/client-address';
 import { guardRequest } from './lib/http/request-guard';
+import { databaseUp, UNAVAILABLE_PAGE } from './lib/http/database-health';
+import { RETRY_AFTER_SECONDS } from './lib/http/unavailable';
 
 function flag(name: string): string | undefined {
   const i = process.argv.indexOf(name);
@@ -54,12 +56,25 @@ async function main() {
       refuse(res, refusal.status, refusal.error);
       return;
     }
+    void serve(req, res);
+  });
+  const serve = async (req: IncomingMessage, res: ServerResponse) => {
+    // A page read while the database is down: a plain 503 that retries, instead of a broken page.
+    const url = req.url ?? '/';
+    if ((req.method === 'GET' || req.method === 'HEAD') && !url.startsWith('/api/') && !url.startsWith('/_next/') && !(await databaseUp())) {
+      res.writeHead(503, {
+        'content-type': 'text/html; charset=utf-8', 'retry-after': String(RETRY_AFTER_SECONDS), 'cache-control': 'no-store',
+        'content-security-policy': "default-src 'none'; style-src 'unsafe-inline'; frame-ancestors 'none'", 'x-content-type-options': 'nosniff',
+      });
+      res.end(req.method === 'HEAD' ? undefined : UNAVAILABLE_PAGE);
+      return;
+    }
     handle(req, res).catch((err: unknown) => {
       console.error(err);
       if (!res.headersSent) refuse(res, 500, 'Something went wrong on our side; nothing was saved.');
       else res.destroy();
     });
-  });
+  };
   // A request must arrive whole within five minutes and its headers within one (slow-send attacks).
   server.requestTimeout = 5 * 60_000;
   server.headersTimeout = 60_000;

@@ -11,11 +11,9 @@ ALTER TABLE curves ADD CONSTRAINT curves_method_coating CHECK (
 );
 ALTER TABLE curves ADD COLUMN coating text GENERATED ALWAYS AS (COALESCE(method->>'coating', 'unknown')) STORED;
 ALTER TABLE curves ADD COLUMN temp_coeff_nm_per_c double precision CHECK (temp_coeff_nm_per_c IS NULL OR abs(temp_coeff_nm_per_c) <= 1);
-CREATE INDEX curves_coating ON curves (coating) WHERE status = 'verified';
 `;
 
 const down = `
-DROP INDEX IF EXISTS curves_coating;
 ALTER TABLE curves DROP COLUMN IF EXISTS temp_coeff_nm_per_c;
 ALTER TABLE curves DROP COLUMN IF EXISTS coating;
 ALTER TABLE curves DROP CONSTRAINT IF EXISTS curves_method_coating;

@@ -14,6 +14,8 @@ import { opticInputSchema, opticRawShape } from '@/lib/schemas/optics';
 import { registerSchema, resetConfirmSchema, resetRequestSchema, roleChangeSchema } from '@/lib/schemas/account';
 import { reviewDecisionSchema, submissionMetadataSchema, threadReplySchema } from '@/lib/schemas/submission';
 import { createTokenSchema } from '@/lib/schemas/tokens';
+import { fieldMapRequestSchema } from '@/lib/schemas/field-map';
+import { oddsQuerySchema } from '@/lib/schemas/odds';
 import * as r from './responses';
 
 export type Method = 'get' | 'post' | 'patch' | 'delete';
@@ -129,7 +131,50 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
     responses: { 200: { description: 'The curve and its points.', schema: r.curveDetailWithPoints }, ...missing },
     example: { params: { id: '1' } },
   },
+  {
+    method: 'get', path: '/api/curves/{id}/cite', tag: 'Curves', access: 'public',
+    summary: 'Cite one revision of a curve: BibTeX or CSL JSON, with its permanent address',
+    params: id('Curve'),
+    query: z.object({ format: z.enum(['bibtex', 'csl']).optional().describe('bibtex (default) or csl') }),
+    responses: { 200: { description: 'BibTeX (application/x-bibtex) or CSL JSON (application/vnd.citationstyles.csl+json).', type: 'application/x-bibtex' }, ...missing, ...invalid },
+    example: { params: { id: '1' } },
+  },
+  {
+    method: 'get', path: '/api/curves/{id}/jcamp', tag: 'Curves', access: 'public',
+    summary: 'One curve as JCAMP-DX 4.24, for laboratory software',
+    params: id('Curve'),
+    responses: { 200: { description: 'A JCAMP-DX file (UV/VIS spectrum, nm against transmittance).', type: 'chemical/x-jcamp-dx' }, ...missing },
+    example: { params: { id: '1' } },
+  },
+  {
+    method: 'get', path: '/api/curves/{id}/votable', tag: 'Curves', access: 'public',
+    summary: 'One curve and its metadata as an IVOA VOTable 1.4',
+    params: id('Curve'),
+    responses: { 200: { description: 'A VOTable: FIELDs with units (nm, dimensionless), the method as PARAMs.', type: 'application/x-votable+xml' }, ...missing },
+    example: { params: { id: '1' } },
+  },
+  {
+    method: 'get', path: '/api/labels/odds', tag: 'Curves', access: 'public',
+    summary: 'Odds for a buyer: the share of a label\'s verified units that keep the line on an optic',
+    description: 'Counted over the measured units and estimated from normal fits of their CWL and FWHM; fewer than three units answer with `probability: null` and a reason.',
+    query: oddsQuerySchema,
+    responses: { 200: { description: 'Units, how many meet the threshold, and the fitted probability.', schema: r.odds }, ...invalid },
+    example: { query: { label: 'No such label', fNumber: '2.5', obstruction: '0.36', minThroughput: '0.8', line: 'Ha' } },
+  },
   // ---------------------------------------------------------------- model
+  {
+    method: 'post', path: '/api/model/field-map', tag: 'Model', access: 'public',
+    summary: 'Line throughput across the whole sensor',
+    description: 'Centre, edge midpoints, corner, the share of the sensor that keeps each threshold, and a map `grid.throughput[y][x]` (docs/model.md).',
+    body: { schema: fieldMapRequestSchema },
+    responses: { 200: { description: 'The sensor map.', schema: r.fieldMap }, 400: err('Malformed JSON.'), ...missing, ...invalid },
+    example: {
+      body: {
+        points: { wavelengthNm: [650, 653, 654.5, 655.5, 656.3, 657.1, 658.1, 659.6, 662.6], transmission: [0, 0.01, 0.45, 0.88, 0.9, 0.88, 0.45, 0.01, 0] },
+        optic: { fNumber: 2.5, obstruction: 0.36 }, sensor: { widthMm: 23.5, heightMm: 15.6 }, exitPupilMm: 60, nEff: 2, lineNm: 656.28, grid: { nx: 20, ny: 14 },
+      },
+    },
+  },
   {
     method: 'post', path: '/api/model/cone', tag: 'Model', access: 'public',
     summary: 'Run a curve through an optic\'s light cone',

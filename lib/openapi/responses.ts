@@ -141,3 +141,14 @@ export const userChanged = z.looseObject({ id: z.string(), role: z.string() });
 export const csrf = z.object({ csrfToken: z.string() });
 export const session = z.looseObject({});
 export const openApiDocument = z.looseObject({ openapi: z.string(), paths: z.looseObject({}) });
+
+export const odds = z.object({
+  label: z.string(), units: z.number().int(), meeting: z.number().int().nullable(), probability: z.number().nullable(),
+  cwlSpreadNm: z.number().nullable(), fwhmSpreadNm: z.number().nullable(), reason: z.string().optional(),
+}).passthrough();
+
+export const fieldMap = z.object({
+  centre: z.number(), corner: z.number(), edgeX: z.number(), edgeY: z.number(),
+  areaAtLeast: z.array(z.object({ threshold: z.number(), share: z.number() })),
+  grid: z.object({ xMm: z.array(z.number()), yMm: z.array(z.number()), throughput: z.array(z.array(z.number())) }),
+}).passthrough();

@@ -125,6 +125,24 @@ const MATRIX: Record<string, Partial<Record<Method, Case[]>>> = {
       { what: 'the owner’s unreviewed curve', request: async () => ({ path: `/api/curves/${(await ownerSubmission()).curveId}` }), expect: S(404, 200, 404, 200, 200, 200) },
     ],
   },
+  'curves/[id]/cite': {
+    GET: [
+      { what: 'a verified curve', request: () => ({ path: `/api/curves/${verifiedCurveId}/cite` }), expect: ALL(200) },
+      { what: 'the owner’s unreviewed curve', request: async () => ({ path: `/api/curves/${(await ownerSubmission()).curveId}/cite` }), expect: S(404, 200, 404, 200, 200, 200) },
+    ],
+  },
+  'curves/[id]/jcamp': {
+    GET: [
+      { what: 'a verified curve', request: () => ({ path: `/api/curves/${verifiedCurveId}/jcamp` }), expect: ALL(200) },
+      { what: 'the owner’s unreviewed curve', request: async () => ({ path: `/api/curves/${(await ownerSubmission()).curveId}/jcamp` }), expect: S(404, 200, 404, 200, 200, 200) },
+    ],
+  },
+  'curves/[id]/votable': {
+    GET: [
+      { what: 'a verified curve', request: () => ({ path: `/api/curves/${verifiedCurveId}/votable` }), expect: ALL(200) },
+      { what: 'the owner’s unreviewed curve', request: async () => ({ path: `/api/curves/${(await ownerSubmission()).curveId}/votable` }), expect: S(404, 200, 404, 200, 200, 200) },
+    ],
+  },
   'curves/[id]/csv': {
     GET: [
       { what: 'a verified curve', request: () => ({ path: `/api/curves/${verifiedCurveId}/csv` }), expect: ALL(200) },
@@ -152,6 +170,16 @@ const MATRIX: Record<string, Partial<Record<Method, Case[]>>> = {
       { what: 'the cone model on sent points', request: () => ({ path: '/api/model/cone', body: { points, optic: { fNumber: 4, obstruction: 0 }, nEff: 2, lines: ['Ha'] } }), expect: ALL(200) },
       { what: 'the cone model on the owner’s unreviewed curve', request: async () => ({ path: '/api/model/cone', body: { curveId: (await ownerSubmission()).curveId, optic: { fNumber: 4, obstruction: 0 }, nEff: 2, lines: ['Ha'] } }), expect: S(404, 200, 404, 200, 200, 200) },
     ],
+  },
+  'model/field-map': {
+    POST: [
+      { what: 'a sensor map of sent points', request: () => ({ path: '/api/model/field-map', body: { points, optic: { fNumber: 4, obstruction: 0 }, sensor: { widthMm: 12, heightMm: 9 }, exitPupilMm: 60, nEff: 2, lineNm: 656.28, grid: { nx: 8, ny: 6 } } }), expect: ALL(200) },
+      { what: 'a sensor map of the owner’s unreviewed curve', request: async () => ({ path: '/api/model/field-map', body: { curveId: (await ownerSubmission()).curveId, optic: { fNumber: 4, obstruction: 0 }, sensor: { widthMm: 12, heightMm: 9 }, exitPupilMm: 60, nEff: 2, lineNm: 656.28, grid: { nx: 8, ny: 6 } } }), expect: S(404, 200, 404, 200, 200, 200) },
+    ],
+  },
+  'labels/odds': {
+    // Public: it reads verified curves only; a label with fewer than three units answers with a reason.
+    GET: [{ what: 'odds for a label', request: () => ({ path: '/api/labels/odds?label=No%20such%20label&fNumber=4&obstruction=0&minThroughput=0.8&line=Ha' }), expect: ALL(200) }],
   },
   'model/neff': {
     POST: [{ what: 'fit from CWLs', request: () => ({ path: '/api/model/neff', body: { measurements: [{ aoiDeg: 0, cwlNm: 656.3 }, { aoiDeg: 10, cwlNm: 655.3 }] } }), expect: ALL(200) }],

@@ -1,5 +1,5 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { closeSequelize, getSequelize } from '@/db/connection';
 import { searchCurves, type SearchResult } from '@/lib/catalogue/search';
 import { parseSearchParams } from '@/lib/catalogue/search-params';
@@ -184,6 +184,13 @@ describe('the copy follows the library', () => {
 describe('the copy is brought up to date by the curves that changed', () => {
   const sequelize = getSequelize();
 
+  /** A verified curve is never deleted (db/migrations/0005); the owner lifts the guard for a test's own rows only. */
+  const maintenance = (work: (transaction: Transaction) => Promise<unknown>) =>
+    sequelize.transaction(async (transaction) => {
+      await sequelize.query(`SET LOCAL bandcone.maintenance = 'on'`, { transaction });
+      await work(transaction);
+    });
+
   /** A verified copy of curve `of` with its grid rows, committed in one transaction (as a verification is). */
   async function verifiedCopyOf(of: number): Promise<number> {
     return sequelize.transaction(async (transaction) => {
@@ -225,7 +232,7 @@ describe('the copy is brought up to date by the curves that changed', () => {
       const before = { ...copyStats };
       const copyBefore = await catalogueCopy();
 
-      await sequelize.query(`DELETE FROM curves WHERE id = $1`, { bind: [removed] });
+      await maintenance((transaction) => sequelize.query(`DELETE FROM curves WHERE id = $1`, { bind: [removed], transaction }));
       made.push(await verifiedCopyOf(offNormal.id), await verifiedCopyOf(onAxis.id));
       await sequelize.query(`UPDATE curve_fitness SET level = level WHERE curve_id = $1`, { bind: [touched] });
       // the SQL path keeps counts for 30 s; the app forgets them when it changes the library, so does this test
@@ -243,7 +250,7 @@ describe('the copy is brought up to date by the curves that changed', () => {
       // the blocks came along instead of being read again
       expect(copyAfter.used.size).toBeGreaterThan(0);
     } finally {
-      await sequelize.query(`DELETE FROM curves WHERE id = ANY($1::int[])`, { bind: [made] });
+      await maintenance((transaction) => sequelize.query(`DELETE FROM curves WHERE id = ANY($1::int[])`, { bind: [made], transaction }));
       forgetCounts();
     }
     const p = parseSearchParams(new URLSearchParams(SEARCHES[0]));
