@@ -142,9 +142,11 @@ export const csrf = z.object({ csrfToken: z.string() });
 export const session = z.looseObject({});
 export const openApiDocument = z.looseObject({ openapi: z.string(), paths: z.looseObject({}) });
 
+const spreadStats = z.object({ mean: z.number().nullable(), sd: z.number().nullable().describe('sample standard deviation (n − 1)'), min: z.number().nullable(), max: z.number().nullable() });
+
 export const odds = z.object({
   label: z.string(), units: z.number().int(), meeting: z.number().int().nullable(), probability: z.number().nullable(),
-  cwlSpreadNm: z.number().nullable(), fwhmSpreadNm: z.number().nullable(), reason: z.string().optional(),
+  cwlSpreadNm: spreadStats, fwhmSpreadNm: spreadStats, reason: z.string().optional(),
 }).passthrough();
 
 export const fieldMap = z.object({

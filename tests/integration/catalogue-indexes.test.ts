@@ -26,9 +26,12 @@ async function plan(qs: string, which: 'page' | 'facet', as: 'visitor' | 'modera
   const sequelize = getSequelize();
   return sequelize.transaction(async (transaction) => {
     await sequelize.query('SET LOCAL enable_seqscan = off', { transaction });
-    // On a hundred rows a bitmap over the status index is rightly cheapest; priced out too where
-    // the question is whether an ordered covering index serves the statement at all.
-    if (opts.bitmaps === false) await sequelize.query('SET LOCAL enable_bitmapscan = off', { transaction });
+    // On a hundred rows reading the status index and sorting is rightly cheapest; bitmaps and sorts are
+    // priced out too where the question is whether an ordered covering index serves the statement at all.
+    if (opts.bitmaps === false) {
+      await sequelize.query('SET LOCAL enable_bitmapscan = off', { transaction });
+      await sequelize.query('SET LOCAL enable_sort = off', { transaction });
+    }
     const rows = await sequelize.query<{ 'QUERY PLAN': string }>(`EXPLAIN (ANALYZE, COSTS OFF) ${text}`, { bind, type: QueryTypes.SELECT, transaction });
     return rows.map((r) => r['QUERY PLAN']).join('\n');
   });
