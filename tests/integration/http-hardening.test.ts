@@ -22,11 +22,14 @@ function points() {
   return { wavelengthNm, transmission };
 }
 
+// Leaves the preview limit fresh for the browser tests that follow.
+const clearPreviewCounts = () => query(`DELETE FROM rate_limits WHERE key LIKE 'rl:preview:%' RETURNING key`).catch(() => []);
+
 describe('client address and rate limits (issue 10, item 5)', () => {
-  afterAll(() => query(`DELETE FROM rate_limits WHERE key LIKE 'rl:preview:%' RETURNING key`));
+  afterAll(clearPreviewCounts);
 
   it('a client cannot escape the preview limit by writing its own X-Forwarded-For', async () => {
-    await query(`DELETE FROM rate_limits WHERE key LIKE 'rl:preview:%' RETURNING key`);
+    await clearPreviewCounts();
     const body = JSON.stringify({ points: points() });
     const statuses: number[] = [];
     for (let i = 0; i <= PREVIEW_LIMIT; i++) {
