@@ -21,7 +21,7 @@ export function retryPolicy() {
   return { retryLimit, retryDelay, retryBackoff: true, expireInSeconds: 120 };
 }
 
-const globalForBoss = globalThis as unknown as { bandconeBoss?: PgBoss; bandconeWorkers?: Map<string, string> };
+const globalForBoss = globalThis as unknown as { bandconeBoss?: PgBoss; bandconeWorkers?: Map<string, string[]> };
 
 /** The process's one pg-boss instance. Sending through a transaction needs no start(). */
 export function boss(): PgBoss {
@@ -44,8 +44,9 @@ export function boss(): PgBoss {
 
 const workers = () => (globalForBoss.bandconeWorkers ??= new Map());
 
+/** Notes a worker of this process on the queue (several may share one); undefined forgets them all. */
 export function rememberWorker(queue: string, id: string | undefined) {
-  if (id) workers().set(queue, id);
+  if (id) workers().set(queue, [...(workers().get(queue) ?? []), id]);
   else workers().delete(queue);
 }
 
@@ -55,8 +56,7 @@ export function rememberWorker(queue: string, id: string | undefined) {
  * wakes itself after each job: a backlog drains at SMTP speed, not one message a second.
  */
 export function wakeWorker(queue: string) {
-  const id = workers().get(queue);
-  if (id) boss().notifyWorker(id);
+  for (const id of workers().get(queue) ?? []) boss().notifyWorker(id);
 }
 
 // pg-boss runs its SQL on the transaction's own connection, so the job is part of the transaction.

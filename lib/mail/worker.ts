@@ -48,6 +48,9 @@ export async function deliver(mailId: number): Promise<'sent' | 'skipped' | 'fai
 
 let starting: Promise<void> | undefined;
 
+/** Messages sent at once by one server process (MAIL_SENDERS, default 4). */
+const MAIL_SENDERS = Math.max(1, Math.min(16, Number(process.env.MAIL_SENDERS ?? 4)));
+
 /**
  * Starts this process's workers (the app server calls it from instrumentation.ts). When the
  * database is not there yet, it tries again later instead of giving up.
@@ -75,7 +78,8 @@ export function startMailWorker(): Promise<void> {
           wakeWorker(name);
         }
       });
-    rememberWorker(MAIL_QUEUE, await handle<{ mailId: number }>(MAIL_QUEUE, (d) => deliver(Number(d.mailId))));
+    // Several senders, so a backlog (a hundred decisions at once) drains in seconds; each claims its row first.
+    for (let k = 0; k < MAIL_SENDERS; k++) rememberWorker(MAIL_QUEUE, await handle<{ mailId: number }>(MAIL_QUEUE, (d) => deliver(Number(d.mailId))));
     rememberWorker(RESET_QUEUE, await handle<{ email: string }>(RESET_QUEUE, (d) => prepareResetMail(d.email)));
     rememberWorker(REGISTER_QUEUE, await handle<RegistrationRequest>(REGISTER_QUEUE, prepareRegistration));
     // Ended sessions are kept a while for the record, then dropped.

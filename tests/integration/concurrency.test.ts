@@ -47,6 +47,20 @@ function shuffled<T>(items: T[], seed: number): T[] {
   return a;
 }
 
+/** Waits until the mail these tests caused has left the queue, so later tests find theirs promptly; prints how long it took. */
+async function mailDrained(what: string) {
+  const started = Date.now();
+  let queued = 0;
+  while (Date.now() - started < 120_000) {
+    const [row] = await query<{ n: string }>(`SELECT count(*)::text AS n FROM outgoing_mail WHERE state = 'queued'`);
+    queued = Number(row.n);
+    if (queued === 0) break;
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  console.log(`concurrency: the mail of ${what} left the queue ${((Date.now() - started) / 1000).toFixed(1)} s after the last answer`);
+  expect(queued).toBe(0);
+}
+
 const upload = (client: Client, files: Upload[], metadata: unknown) =>
   client.fetch('/api/submissions', { method: 'POST', body: submissionForm(files, metadata) });
 
@@ -99,6 +113,7 @@ describe('twenty moderators deciding the same hundred submissions at once', () =
     const [broken] = await query<{ n: string }>(`SELECT count(*)::text AS n FROM submissions s JOIN curves c ON c.submission_id = s.id
       WHERE s.id IN (:ids) AND (c.status <> s.status OR (s.status = 'verified' AND NOT EXISTS (SELECT 1 FROM curve_fitness f WHERE f.curve_id = c.id)))`, { ids });
     expect(broken.n).toBe('0');
+    await mailDrained('200 submissions and decisions');
   }, 240_000);
 });
 
@@ -147,5 +162,6 @@ describe('fifty contributors uploading at once, valid and invalid mixed', () => 
       `${wrongStatus.length} unexpected statuses, ${mismatched.length} half-written`);
     expect(wrongStatus).toEqual([]);
     expect(mismatched).toEqual([]);
+    await mailDrained('50 uploads');
   }, 240_000);
 });
