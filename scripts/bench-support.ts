@@ -1,8 +1,8 @@
-// What the load scripts share: percentiles, finding the server's processes, their memory,
-// and the part of autocannon's API they use (it ships no types).
-import { execFileSync } from 'node:child_process';
+// What the load scripts share: percentiles, the server's processes and their memory (through
+// lib/proc.ts), and the part of autocannon's API they use (it ships no types).
 import { readFileSync, readdirSync } from 'node:fs';
 import { createRequire } from 'node:module';
+import { pidListeningOn, rssBytes } from './lib/proc';
 
 export type AutocannonInstance = PromiseLike<{ errors: number; timeouts: number; non2xx: number }> & {
   on(event: 'response', fn: (client: unknown, status: number, bytes: number, ms: number) => void): void;
@@ -31,20 +31,11 @@ export function percentile(sorted: number[], p: number): number {
   return sorted[i];
 }
 
-/** The process listening on the server's port (or the given pid), and its children (Next serves from a child). */
+/** The process listening on the server's port (or the given pid), and its children, if any. */
 export function serverPids(base: string, givenPid = ''): number[] {
-  const port = new URL(base).port || '80';
-  let root = givenPid ? Number(givenPid) : NaN;
-  if (!Number.isFinite(root)) {
-    try {
-      const out = execFileSync('ss', ['-ltnpH', `sport = :${port}`], { encoding: 'utf8' });
-      const at = out.indexOf('pid=');
-      if (at >= 0) root = parseInt(out.slice(at + 4), 10);
-    } catch {
-      return [];
-    }
-  }
-  if (!Number.isFinite(root)) return [];
+  const port = Number(new URL(base).port || 80);
+  const root = givenPid ? Number(givenPid) : pidListeningOn(port);
+  if (root === null || !Number.isFinite(root)) return [];
   const pids = [root];
   const parents = new Map<number, number>();
   for (const d of readdirSync('/proc')) {
@@ -65,17 +56,7 @@ export function serverPids(base: string, givenPid = ''): number[] {
 }
 
 export function rssMb(pids: number[]): number {
-  let kb = 0;
-  for (const pid of pids) {
-    try {
-      const status = readFileSync(`/proc/${pid}/status`, 'utf8');
-      const at = status.indexOf('VmRSS:');
-      if (at >= 0) kb += parseInt(status.slice(at + 6).trim(), 10);
-    } catch {
-      /* exited */
-    }
-  }
-  return kb / 1024;
+  return pids.reduce((sum, pid) => sum + (rssBytes(pid) ?? 0), 0) / 1048576;
 }
 
 /** Samples the server's memory until stopped; `peak()` is the largest seen. */
