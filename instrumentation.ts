@@ -15,3 +15,9 @@ export async function register() {
     import('@/lib/catalogue/memory-index').then((m) => m.catalogueCopy()).catch(() => undefined);
   }, 0);
 }
+
+// A page that failed because the database went away is answered 503, not 500 (lib/http/database-health.ts).
+export async function onRequestError(err: unknown) {
+  const { noteRequestError } = await import('@/lib/http/database-health');
+  noteRequestError(err);
+}

@@ -12,7 +12,7 @@ import { fileURLToPath } from 'node:url';
 import next from 'next';
 import { forwardedChain, trustedProxyCount } from './lib/http/client-address';
 import { guardRequest } from './lib/http/request-guard';
-import { databaseUp, UNAVAILABLE_PAGE } from './lib/http/database-health';
+import { databaseRecentlyLost, databaseUp, UNAVAILABLE_PAGE } from './lib/http/database-health';
 import { RETRY_AFTER_SECONDS } from './lib/http/unavailable';
 
 function flag(name: string): string | undefined {
@@ -43,6 +43,24 @@ function refuse(res: ServerResponse, status: number, error: string) {
   res.end(body);
 }
 
+/** A page whose drawing failed on a lost database connection goes out as 503 with Retry-After (its body is the error page). */
+function answerLostDatabaseAs503(res: ServerResponse) {
+  const fix = (status: number) => {
+    if (status !== 500 || res.headersSent || !databaseRecentlyLost()) return status;
+    res.setHeader('retry-after', String(RETRY_AFTER_SECONDS));
+    return 503;
+  };
+  const writeHead = res.writeHead.bind(res) as (...args: unknown[]) => ServerResponse;
+  res.writeHead = ((status: number, ...rest: unknown[]) => writeHead(fix(status), ...rest)) as typeof res.writeHead;
+  for (const name of ['write', 'end'] as const) {
+    const original = res[name].bind(res) as (...args: unknown[]) => unknown;
+    (res as unknown as Record<string, unknown>)[name] = (...args: unknown[]) => {
+      if (!res.headersSent) res.statusCode = fix(res.statusCode);
+      return original(...args);
+    };
+  }
+}
+
 async function main() {
   const app = next({ dev, dir, hostname, port });
   const handle = app.getRequestHandler();
@@ -69,6 +87,7 @@ async function main() {
       res.end(req.method === 'HEAD' ? undefined : UNAVAILABLE_PAGE);
       return;
     }
+    if (!url.startsWith('/api/') && !url.startsWith('/_next/')) answerLostDatabaseAs503(res);
     handle(req, res).catch((err: unknown) => {
       console.error(err);
       if (!res.headersSent) refuse(res, 500, 'Something went wrong on our side; nothing was saved.');

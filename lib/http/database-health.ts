@@ -1,30 +1,49 @@
 import pg from 'pg';
 import { appDatabaseUrl } from '../../db/config';
+import { isDatabaseUnavailable } from './unavailable';
 
 /**
- * Whether PostgreSQL answers, asked at most once a second and shared by every request in
- * that second. The server asks before drawing a page: a page cannot set its own status once
+ * Whether PostgreSQL answers, asked at most four times a second and shared by the requests
+ * in between. The server asks before drawing a page: a page cannot set its own status once
  * it streams, so while the database is down the server answers 503 itself, in plain words.
- * API routes need no such check: each maps a lost connection to 503 (lib/http/unavailable.ts).
+ * A page that fails on a lost connection in the moment before the check notices is reported
+ * by Next (instrumentation.ts, onRequestError) before its error page is written; the server
+ * then sends that page as a 503 too. API routes map a lost connection to 503 themselves
+ * (lib/http/unavailable.ts). State lives on globalThis: the server and Next's bundle of
+ * instrumentation.ts load this module separately.
  */
-const FRESH_MS = 1_000;
-let pool: pg.Pool | null = null;
-let last: { at: number; up: Promise<boolean> } | null = null;
+const FRESH_MS = 250;
+const SUSPECT_MS = 5_000;
+const state = globalThis as unknown as { bandconeDbPool?: pg.Pool; bandconeDbProbe?: { at: number; up: Promise<boolean> } | null; bandconeDbFailedAt?: number };
 
 function probe(): Promise<boolean> {
-  pool ??= new pg.Pool({ connectionString: appDatabaseUrl(), max: 1, connectionTimeoutMillis: 1_500, idleTimeoutMillis: 10_000 });
-  // A pool error on an idle client (the server going away) is expected here, not a crash.
-  pool.removeAllListeners('error');
-  pool.on('error', () => undefined);
-  return pool.query('SELECT 1').then(
+  if (!state.bandconeDbPool) {
+    state.bandconeDbPool = new pg.Pool({ connectionString: appDatabaseUrl(), max: 1, connectionTimeoutMillis: 1_500, idleTimeoutMillis: 10_000 });
+    // A pool error on an idle client (the server going away) is expected here, not a crash.
+    state.bandconeDbPool.on('error', () => undefined);
+  }
+  return state.bandconeDbPool.query('SELECT 1').then(
     () => true,
     () => false,
   );
 }
 
 export function databaseUp(now = Date.now()): Promise<boolean> {
-  if (!last || now - last.at >= FRESH_MS) last = { at: now, up: probe() };
-  return last.up;
+  const last = state.bandconeDbProbe;
+  if (!last || now - last.at >= FRESH_MS) state.bandconeDbProbe = { at: now, up: probe() };
+  return state.bandconeDbProbe!.up;
+}
+
+/** Called for every error a page or route raised: a lost connection makes the next check ask afresh. */
+export function noteRequestError(err: unknown): void {
+  if (!isDatabaseUnavailable(err)) return;
+  state.bandconeDbFailedAt = Date.now();
+  state.bandconeDbProbe = null;
+}
+
+/** Whether a request failed on a lost database connection in the last few seconds. */
+export function databaseRecentlyLost(now = Date.now()): boolean {
+  return now - (state.bandconeDbFailedAt ?? -Infinity) < SUSPECT_MS;
 }
 
 export const UNAVAILABLE_PAGE = `<!doctype html>
