@@ -16,6 +16,9 @@ export interface StripPlotProps {
   className?: string;
 }
 
+const MAX_DOTS = 60;
+const MAX_LANES = 4;
+
 function mean(v: readonly number[]): number {
   return v.reduce((s, x) => s + x, 0) / v.length;
 }
@@ -62,19 +65,24 @@ export function StripPlot({
   const r = 3.5;
   const sx = (v: number) => padX + ((v - d0) / (d1 - d0)) * (width - 2 * padX);
 
-  // Dots that would overlap step upward into lanes, so every unit stays visible.
-  const sorted = items.map((d) => ({ ...d, px: sx(d.v) })).sort((a, b) => a.px - b.px);
+  // Dots that would overlap step upward into lanes (at most MAX_LANES, then they share the top one).
+  // A popular label can have hundreds of units: past MAX_DOTS the dots stand at evenly spaced
+  // quantiles of all of them, while the mean, spread and range above use every value.
+  const all = items.map((d) => ({ ...d, px: sx(d.v) })).sort((a, b) => a.px - b.px);
+  const sorted = all.length <= MAX_DOTS ? all : Array.from({ length: MAX_DOTS }, (_, k) => all[Math.round((k * (all.length - 1)) / (MAX_DOTS - 1))]);
   const laneEnds: number[] = [];
   const placed = sorted.map((d) => {
     let lane = laneEnds.findIndex((end) => d.px - end >= 2 * r + 1);
-    if (lane === -1) {
+    if (lane === -1 && laneEnds.length < MAX_LANES) {
       lane = laneEnds.length;
       laneEnds.push(d.px);
-    } else laneEnds[lane] = d.px;
+    } else if (lane === -1) lane = MAX_LANES - 1;
+    laneEnds[lane] = d.px;
     return { ...d, cy: axisY - 8 - lane * (2 * r + 1) };
   });
 
-  const summary = `${label}: ${items.length} value${items.length === 1 ? '' : 's'}, mean ${formatValue(m, format)}, range ${formatValue(Math.min(...vs), format)} to ${formatValue(Math.max(...vs), format)}${items.length > 1 ? `, standard deviation ${formatValue(s, format)}` : ''}${nominal != null ? `, nominal ${formatValue(nominal, format)}` : ''}.`;
+  const shown = sorted.length < all.length ? ` (dots for ${sorted.length} of them, at even quantiles)` : '';
+  const summary = `${label}: ${items.length} value${items.length === 1 ? '' : 's'}${shown}, mean ${formatValue(m, format)}, range ${formatValue(Math.min(...vs), format)} to ${formatValue(Math.max(...vs), format)}${items.length > 1 ? `, standard deviation ${formatValue(s, format)}` : ''}${nominal != null ? `, nominal ${formatValue(nominal, format)}` : ''}.`;
   const mx = sx(m);
 
   return (

@@ -7,6 +7,7 @@ import appRoleAndGuards from './0005_app_role_and_guards';
 import coating from './0006_coating';
 import rateLimits from './0007_rate_limits';
 import catalogueChanges from './0009_catalogue_changes';
+import curvePageReads from './0010_curve_page_reads';
 
 export type Migration = {
   name: string;
@@ -15,4 +16,4 @@ export type Migration = {
 };
 
 // Append new migrations here, in order; never edit one that has shipped.
-export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, coating, rateLimits, catalogueChanges];
+export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, coating, rateLimits, catalogueChanges, curvePageReads];
