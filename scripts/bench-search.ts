@@ -99,6 +99,7 @@ function churn(seconds: number) {
   const client = new pg.Client({ connectionString: url });
   const made: number[] = [];
   let timer: NodeJS.Timeout | undefined;
+  let pending: Promise<void> = Promise.resolve();
   const once = async () => {
     await client.query('BEGIN');
     const { rows } = await client.query<{ id: number; src: number }>(
@@ -121,10 +122,14 @@ function churn(seconds: number) {
   return {
     async start() {
       await client.connect();
-      timer = setInterval(() => void once().catch((err) => console.error('churn:', err.message)), seconds * 1000);
+      timer = setInterval(() => {
+        // one at a time on the one client, so no two transactions interleave
+        pending = pending.then(once).catch((err) => console.error('churn:', err.message));
+      }, seconds * 1000);
     },
     async stop() {
       clearInterval(timer);
+      await pending;
       // A verified curve is never deleted (db/migrations/0005); the owner lifts the guard for the bench's own rows.
       if (made.length) {
         await client.query('BEGIN');
