@@ -23,6 +23,7 @@ done
 for f in roles.sql database.dump fingerprint.txt manifest.txt; do
   [ -f "$BACKUP/$f" ] || { echo "$BACKUP is not a Bandcone backup: $f is missing" >&2; exit 2; }
 done
+DATA="$(realpath -m "$DATA")"   # PostgreSQL runs from its own folder: every path it is given must be absolute
 if [ -e "$DATA" ] && [ -n "$(ls -A "$DATA" 2>/dev/null)" ]; then
   echo "$DATA already holds something; restore goes into a fresh cluster (remove it or pass --data)" >&2; exit 2
 fi
@@ -45,11 +46,13 @@ psql "$URL_BASE/postgres" -X -qtA -v ON_ERROR_STOP=1 -c "CREATE DATABASE \"$DB_N
 RESTORE="$PGBIN/pg_restore"; [ -x "$RESTORE" ] || RESTORE=pg_restore
 "$RESTORE" --dbname="$URL_BASE/$DB_NAME" --exit-on-error --jobs=2 "$BACKUP/database.dump"
 
-psql "$URL_BASE/$DB_NAME" -X -qtA -v ON_ERROR_STOP=1 -f "$ROOT/scripts/backup-fingerprint.sql" > "$DATA.fingerprint"
-if ! diff -u "$BACKUP/fingerprint.txt" "$DATA.fingerprint"; then
+restored="$(mktemp)"
+psql "$URL_BASE/$DB_NAME" -X -qtA -v ON_ERROR_STOP=1 -f "$ROOT/scripts/backup-fingerprint.sql" > "$restored"
+if ! diff -u "$BACKUP/fingerprint.txt" "$restored"; then
+  rm -f "$restored"
   log "the restored database does NOT match the backup (differences above)"; exit 1
 fi
-rm -f "$DATA.fingerprint"
+rm -f "$restored"
 ms=$(( ($(date +%s%N) - started) / 1000000 ))
 log "restored and checked in $((ms / 1000)).$(printf '%03d' $((ms % 1000))) s: $(grep -c '^rows:' "$BACKUP/fingerprint.txt") tables, every count and checksum equal"
 if [ -z "$STOP_AFTER" ]; then

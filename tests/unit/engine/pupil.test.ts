@@ -15,10 +15,10 @@ describe('angle shift (Macleod, Thin-Film Optical Filters; Smith, Modern Optical
 });
 
 describe('cone geometry (common practice)', () => {
-  it('marginal ray angles on axis: f/2.8 ≈ 10.1°, f/2 ≈ 14.0°, f/7 ≈ 4.1°', () => {
+  it('marginal ray angles on axis, atan(1/2N): f/2.8 ≈ 10.1°, f/1.8 ≈ 15.5°, f/8 ≈ 3.6°', () => {
     expect(marginalRayDeg(2.8)).toBeCloseTo(10.1, 1);
-    expect(marginalRayDeg(2)).toBeCloseTo(14.0, 1);
-    expect(marginalRayDeg(7)).toBeCloseTo(4.1, 1);
+    expect(marginalRayDeg(1.8)).toBeCloseTo(15.5, 1);
+    expect(marginalRayDeg(8)).toBeCloseTo(3.6, 1);
   });
 
   it('the pupil spans the marginal and obstruction-shadow angles on axis', () => {
