@@ -10,6 +10,7 @@
 // the URL's port when the server runs on this machine, or given with --pid).
 // The exit status is 1 when a target is missed.
 import { pidListeningOn, rssBytes } from './lib/proc';
+import { mulberry32 } from '../seeds/world/prng';
 
 type Args = { url: string; pid: number | null; email: string; password: string; concurrency: number; seed: number };
 
@@ -33,17 +34,8 @@ function parseArgs(argv: string[]): Args {
 
 // ---------------------------------------------------------------- the corpus
 
-/** A small deterministic generator (mulberry32), so a run can be repeated exactly. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** A small deterministic generator (the demo world's mulberry32), so a run can be repeated exactly. */
+const rng = mulberry32;
 
 type FileCase = { kind: string; bytes: Uint8Array };
 type JsonCase = { kind: string; body: string };

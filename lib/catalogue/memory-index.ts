@@ -287,6 +287,9 @@ export function readIntegerList(text: string, out: Int32Array, outAt = 0): numbe
 
 type BlockRow = { v: string; id: number | null; neff: number; sums: string; canonical: string | null };
 
+/** What a grid block reads of each curve_fitness row. */
+const GRID_COLUMNS = `n_eff_default AS neff, array_to_string(direct, ',') AS sums, array_to_string(canonical, ',') AS canonical`;
+
 /** Rows per read of a block: small enough that reading one never holds much more than the block itself (settable for tests). */
 const chunkRows = () => Math.max(1, Number(process.env.BANDCONE_COPY_CHUNK ?? 4000));
 
@@ -346,30 +349,55 @@ function rowsOf(width: number) {
   };
 }
 
-async function loadBlock(s: Snapshot, lineId: string, level: number): Promise<GridBlock> {
-  const rowOf = new Int32Array(s.n).fill(-1);
+/** Collects a grid block row by row, in copy order: rows read from PostgreSQL, or carried over from an older block. */
+function blockBuilder(n: number) {
+  const rowOf = new Int32Array(n).fill(-1);
   const members: number[] = [];
   const neff: number[] = [];
   const canonOf: number[] = [];
   const direct = rowsOf(LEVEL_LENGTH);
   const canonical = rowsOf(LEVEL_LENGTH);
-  await readRows(s, 'curve_fitness', `n_eff_default AS neff, array_to_string(direct, ',') AS sums, array_to_string(canonical, ',') AS canonical`, 'line_id = $1 AND level = $2', [lineId, level], (r, i) => {
+  const start = (i: number, nEff: number) => {
     rowOf[i] = members.length;
     members.push(i);
-    neff.push(r.neff);
-    const d = direct.next();
-    if (readIntegerList(r.sums, d.arr, d.at) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a fitness level of the wrong length`);
-    if (r.canonical) {
-      const k = canonical.next();
-      if (readIntegerList(r.canonical, k.arr, k.at) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a canonical level of the wrong length`);
-      canonOf.push(members.length - 1);
-    }
-  });
-  const canonRow = new Int32Array(members.length).fill(-1);
-  canonOf.forEach((row, k) => (canonRow[row] = k));
-  const block = { rowOf, members: Int32Array.from(members), direct: direct.done(), canonRow, canonical: canonical.done(), nEffDefault: Float64Array.from(neff) };
-  const bytes = block.rowOf.byteLength + block.members.byteLength + block.direct.byteLength + canonRow.byteLength + block.canonical.byteLength + block.nEffDefault.byteLength;
-  return { ...block, bytes };
+    neff.push(nEff);
+  };
+  return {
+    fromRow(i: number, r: BlockRow) {
+      start(i, r.neff);
+      const d = direct.next();
+      if (readIntegerList(r.sums, d.arr, d.at) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a fitness level of the wrong length`);
+      if (r.canonical) {
+        const k = canonical.next();
+        if (readIntegerList(r.canonical, k.arr, k.at) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a canonical level of the wrong length`);
+        canonOf.push(members.length - 1);
+      }
+    },
+    fromBlock(i: number, b: GridBlock, row: number) {
+      start(i, b.nEffDefault[row]);
+      const d = direct.next();
+      d.arr.set(b.direct.subarray(row * LEVEL_LENGTH, (row + 1) * LEVEL_LENGTH), d.at);
+      const c = b.canonRow[row];
+      if (c >= 0) {
+        const k = canonical.next();
+        k.arr.set(b.canonical.subarray(c * LEVEL_LENGTH, (c + 1) * LEVEL_LENGTH), k.at);
+        canonOf.push(members.length - 1);
+      }
+    },
+    done(): GridBlock {
+      const canonRow = new Int32Array(members.length).fill(-1);
+      canonOf.forEach((row, k) => (canonRow[row] = k));
+      const block = { rowOf, members: Int32Array.from(members), direct: direct.done(), canonRow, canonical: canonical.done(), nEffDefault: Float64Array.from(neff) };
+      const bytes = rowOf.byteLength + block.members.byteLength + block.direct.byteLength + canonRow.byteLength + block.canonical.byteLength + block.nEffDefault.byteLength;
+      return { ...block, bytes };
+    },
+  };
+}
+
+async function loadBlock(s: Snapshot, lineId: string, level: number): Promise<GridBlock> {
+  const out = blockBuilder(s.n);
+  await readRows(s, 'curve_fitness', GRID_COLUMNS, 'line_id = $1 AND level = $2', [lineId, level], (r, i) => out.fromRow(i, r));
+  return out.done();
 }
 
 async function loadFine(s: Snapshot, lineId: string): Promise<FineBlock> {
@@ -517,47 +545,17 @@ async function freshRows(s: Snapshot, table: 'curve_fitness' | 'curve_fitness_fi
 }
 
 async function patchBlock(b: GridBlock, s: Snapshot, from: Int32Array, added: Int32Array, lineId: string, level: number): Promise<GridBlock> {
-  const fresh = await freshRows(s, 'curve_fitness', `n_eff_default AS neff, array_to_string(direct, ',') AS sums, array_to_string(canonical, ',') AS canonical`, 'line_id = $1 AND level = $2', [lineId, level], added);
+  const fresh = await freshRows(s, 'curve_fitness', GRID_COLUMNS, 'line_id = $1 AND level = $2', [lineId, level], added);
   const freshAt = new Map(fresh.map((x) => [x.i, x.r]));
-  const rowOf = new Int32Array(s.n).fill(-1);
-  const members: number[] = [];
-  const neff: number[] = [];
-  const canonOf: number[] = [];
-  const direct = rowsOf(LEVEL_LENGTH);
-  const canonical = rowsOf(LEVEL_LENGTH);
+  const out = blockBuilder(s.n);
   // New rows in copy order, as a whole read would give them.
   for (let j = 0; j < s.n; j++) {
     const i = from[j];
-    const oldRow = i >= 0 ? b.rowOf[i] : -1;
     const r = i < 0 ? freshAt.get(j) : undefined;
-    if (oldRow < 0 && !r) continue;
-    rowOf[j] = members.length;
-    members.push(j);
-    const d = direct.next();
-    if (r) {
-      neff.push(r.neff);
-      if (readIntegerList(r.sums, d.arr, d.at) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a fitness level of the wrong length`);
-      if (r.canonical) {
-        const k = canonical.next();
-        if (readIntegerList(r.canonical, k.arr, k.at) !== LEVEL_LENGTH) throw new Error(`curve ${r.id}: a canonical level of the wrong length`);
-        canonOf.push(members.length - 1);
-      }
-    } else {
-      neff.push(b.nEffDefault[oldRow]);
-      d.arr.set(b.direct.subarray(oldRow * LEVEL_LENGTH, (oldRow + 1) * LEVEL_LENGTH), d.at);
-      if (b.canonRow[oldRow] >= 0) {
-        const k = canonical.next();
-        const c = b.canonRow[oldRow];
-        k.arr.set(b.canonical.subarray(c * LEVEL_LENGTH, (c + 1) * LEVEL_LENGTH), k.at);
-        canonOf.push(members.length - 1);
-      }
-    }
+    if (r) out.fromRow(j, r);
+    else if (i >= 0 && b.rowOf[i] >= 0) out.fromBlock(j, b, b.rowOf[i]);
   }
-  const canonRow = new Int32Array(members.length).fill(-1);
-  canonOf.forEach((row, k) => (canonRow[row] = k));
-  const block = { rowOf, members: Int32Array.from(members), direct: direct.done(), canonRow, canonical: canonical.done(), nEffDefault: Float64Array.from(neff) };
-  const bytes = block.rowOf.byteLength + block.members.byteLength + block.direct.byteLength + canonRow.byteLength + block.canonical.byteLength + block.nEffDefault.byteLength;
-  return { ...block, bytes };
+  return out.done();
 }
 
 async function patchFine(b: FineBlock, s: Snapshot, from: Int32Array, added: Int32Array, lineId: string): Promise<FineBlock> {
