@@ -10,6 +10,7 @@ import { db } from '@/db/models';
 import type { Curve } from '@/db/models/curve';
 import type { Actor } from '@/lib/auth/actor';
 import { findLine } from '@/lib/engine/lines';
+import type { CurvePoints } from '@/lib/engine/types';
 import { unitSpread, type UnitSpread } from '@/lib/engine/spread';
 import { loadReadableCurve, readableWhere } from './points';
 
@@ -93,7 +94,16 @@ async function revisionChain(actor: Actor | null, curve: Curve) {
 }
 
 export async function getCurveDetail(actor: Actor | null, id: number, origin: string): Promise<CurveDetail> {
-  const curve = await loadReadableCurve(actor, id, false);
+  return detailOf(actor, await loadReadableCurve(actor, id, false), origin);
+}
+
+/** The detail and the samples of one readable curve, from one read of its row (pages and downloads that show both). */
+export async function getCurveDetailWithPoints(actor: Actor | null, id: number, origin: string): Promise<{ detail: CurveDetail; points: CurvePoints }> {
+  const curve = await loadReadableCurve(actor, id, true);
+  return { detail: await detailOf(actor, curve, origin), points: { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission } };
+}
+
+async function detailOf(actor: Actor | null, curve: Curve, origin: string): Promise<CurveDetail> {
   const { Curve: C, User, Review } = db();
   const [contributor, siblings, sameLabel, reviews, revisions] = await Promise.all([
     User.findByPk(curve.contributorId, { attributes: ['id', 'name'] }),

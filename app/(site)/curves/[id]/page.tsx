@@ -5,8 +5,7 @@ import { notFound } from 'next/navigation';
 import { headers } from 'next/headers';
 import { currentActor } from '@/lib/auth/actor';
 import { HttpError } from '@/lib/http/errors';
-import { getCurveDetail, parseCurveId, publicOrigin, type CurveDetail } from '@/lib/catalogue/detail';
-import { loadReadableCurve } from '@/lib/catalogue/points';
+import { getCurveDetailWithPoints, parseCurveId, publicOrigin, type CurveDetail } from '@/lib/catalogue/detail';
 import { opticChoices } from '@/lib/catalogue/optic-choices';
 import { DEFAULT_N_EFF } from '@/lib/catalogue/fitness-grid';
 import { StatusBadge } from '@/components/review/status-badge';
@@ -28,8 +27,8 @@ async function load(raw: string) {
     const id = parseCurveId(raw);
     const h = await headers();
     const origin = publicOrigin(`${h.get('x-forwarded-proto') ?? 'http'}://${h.get('host') ?? 'localhost'}`);
-    const [detail, curve] = await Promise.all([getCurveDetail(actor, id, origin), loadReadableCurve(actor, id)]);
-    return { actor, detail, points: { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission } };
+    const { detail, points } = await getCurveDetailWithPoints(actor, id, origin);
+    return { actor, detail, points };
   } catch (err) {
     if (err instanceof HttpError && err.status === 404) notFound();
     throw err;

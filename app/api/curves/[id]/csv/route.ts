@@ -1,7 +1,6 @@
 import { withErrors } from '@/lib/http/errors';
 import { currentActor } from '@/lib/auth/actor';
-import { csvMetadata, getCurveDetail, parseCurveId, publicOrigin } from '@/lib/catalogue/detail';
-import { loadReadableCurve } from '@/lib/catalogue/points';
+import { csvMetadata, getCurveDetailWithPoints, parseCurveId, publicOrigin } from '@/lib/catalogue/detail';
 import { writeCurveCsv } from '@/lib/engine/csv';
 
 type Ctx = { params: Promise<{ id: string }> };
@@ -10,8 +9,8 @@ type Ctx = { params: Promise<{ id: string }> };
 export const GET = withErrors(async (req: Request, ctx: Ctx) => {
   const id = parseCurveId((await ctx.params).id);
   const actor = await currentActor(req);
-  const [detail, curve] = await Promise.all([getCurveDetail(actor, id, publicOrigin(new URL(req.url).origin)), loadReadableCurve(actor, id)]);
-  const csv = writeCurveCsv(csvMetadata(detail), { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission });
+  const { detail, points } = await getCurveDetailWithPoints(actor, id, publicOrigin(new URL(req.url).origin));
+  const csv = writeCurveCsv(csvMetadata(detail), points);
   return new Response(csv, {
     headers: {
       'content-type': 'text/csv; charset=utf-8',
