@@ -21,14 +21,10 @@ ensure_node_modules
 ensure_secret
 start_cluster "$DATA" "$PGPORT"
 STARTED_CLUSTER="$DATA"   # ours alone: always stopped at the end, even if it was already running
-ensure_database "$DB_NAME" fresh
-ensure_app_role "$DB_NAME"
-npx tsx db/migrate.ts up
-npx tsx seeds/run.ts
-grant_app_role "$DB_NAME"
+prepare_database "$DB_NAME" fresh
 export SMTP_CATCHER_PORT="$SMTP_PORT"
 start_bg "$ROOT/.data/faults-catcher.log" npx tsx scripts/mail-catcher.ts
 build_if_stale
-start_bg "$ROOT/.data/faults-server.log" env NODE_ENV=production APP_DATABASE_URL="$APP_DATABASE_URL" node --import tsx server.ts -H 127.0.0.1 -p "$PORT"
+start_app "$ROOT/.data/faults-server.log"
 wait_for_http "$NEXTAUTH_URL/api/lines" 240 || { log "the app did not answer"; tail -n 40 "$ROOT/.data/faults-server.log"; exit 1; }
 npx tsx scripts/check-faults.ts --url "$NEXTAUTH_URL" --pgdata "$DATA" --pgport "$PGPORT" "$@"

@@ -6,7 +6,7 @@
 // Point the server at the 100 000-curve database first (npm run seed:scale; DEVELOPERS.md says how).
 // Targets on the 2-core machine: p95 ≤ 150 ms for pages and searches, ≤ 50 ms for the model call
 // on a stored curve, no errors, server memory ≤ 1 GB.
-import { memorySampler, percentile, serverPids, type AutocannonRequest } from './bench-support';
+import { memorySampler, percentile, serverPids } from './bench-support';
 
 function arg(name: string, fallback: string): string {
   const i = process.argv.indexOf(`--${name}`);
@@ -30,7 +30,8 @@ const OPTICS = [
 const WORDS = ['hydrogen', 'oxygen+3nm', 'meadow', 'sulphur+spectrograph', 'harbour+lantern', 'beacon', 'quarry+heath', 'tarn+5nm'];
 const LINES = ['Ha', 'OIII', 'SII-671', 'Hb'];
 
-type Kind = { name: string; share: number; target: number; requests: (ids: number[]) => AutocannonRequest[] };
+type LoadRequest = { method: string; path: string; body?: string; headers?: Record<string, string> };
+type Kind = { name: string; share: number; target: number; requests: (ids: number[]) => LoadRequest[] };
 const pick = <T,>(xs: T[], i: number) => xs[i % xs.length];
 
 const KINDS: Kind[] = [

@@ -163,3 +163,21 @@ SQL
 grant_app_role() {
   psql -h 127.0.0.1 -p "$PGPORT" -U postgres -v ON_ERROR_STOP=1 -qtA -d "$1" -c 'SELECT bandcone_grant_app()' >/dev/null
 }
+
+# start_app LOGFILE — the production server (server.ts) on 127.0.0.1:$PORT, in the background.
+# It alone connects as the least-privilege app role; migrations and seeds used the owner.
+start_app() {
+  start_bg "$1" env NODE_ENV=production APP_DATABASE_URL="$APP_DATABASE_URL" node --import tsx server.ts -H 127.0.0.1 -p "$PORT"
+}
+
+# prepare_database NAME [fresh|if-empty] — the database, the app role, every migration, the demo
+# world (always on a fresh one; only when empty with if-empty), then the app role's grants.
+prepare_database() {
+  local name="$1" how="${2:-}"
+  ensure_database "$name" "$([ "$how" = fresh ] && echo fresh)"
+  ensure_app_role "$name"
+  log "migrating $name"
+  npx tsx db/migrate.ts up
+  if [ "$how" = if-empty ]; then npx tsx seeds/run.ts --if-empty; else npx tsx seeds/run.ts; fi
+  grant_app_role "$name"
+}

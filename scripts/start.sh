@@ -20,12 +20,7 @@ ensure_postgres
 ensure_node_modules
 ensure_secret
 start_cluster "$ROOT/.data/pg" "$PGPORT"
-ensure_database "$DB_NAME"
-ensure_app_role "$DB_NAME"
-log "migrating"
-npx tsx db/migrate.ts up
-npx tsx seeds/run.ts --if-empty
-grant_app_role "$DB_NAME"
+prepare_database "$DB_NAME" if-empty
 
 if [ -z "${SMTP_URL_EXTERNAL:-}" ] && [[ "$SMTP_URL" == smtp://127.0.0.1:* ]]; then
   log "starting the mail catcher on 127.0.0.1:$SMTP_PORT"
@@ -35,8 +30,7 @@ fi
 
 build_if_stale
 log "serving on http://127.0.0.1:$PORT"
-# The server alone connects as the least-privilege app role; migrations and seeds used the owner.
-start_bg "$ROOT/.data/server.log" env NODE_ENV=production APP_DATABASE_URL="$APP_DATABASE_URL" node --import tsx server.ts -H 127.0.0.1 -p "$PORT"
+start_app "$ROOT/.data/server.log"
 log "server log: .data/server.log"
 tail -n 0 -f "$ROOT/.data/server.log" &
 STARTED_PIDS+=($!)

@@ -28,12 +28,7 @@ ensure_votable_validators
 ensure_secret
 TEST_DATA="${BANDCONE_TEST_DATA:-$ROOT/.data/pg-test}"
 start_cluster "$TEST_DATA" "$PGPORT"
-ensure_database "$DB_NAME" fresh
-ensure_app_role "$DB_NAME"
-log "migrating the throwaway database"
-npx tsx db/migrate.ts up
-npx tsx seeds/run.ts
-grant_app_role "$DB_NAME"
+prepare_database "$DB_NAME" fresh
 # Tests connect as the owner (DATABASE_URL); this lets them also try things as the app role.
 export TEST_APP_DATABASE_URL="$APP_DATABASE_URL"
 
@@ -45,8 +40,7 @@ export SMTP_CATCHER_PORT="$SMTP_PORT"
 start_bg "$ROOT/.data/test-catcher-$PORT.log" npx tsx scripts/mail-catcher.ts
 
 build_if_stale
-# The server alone connects as the least-privilege app role.
-start_bg "$ROOT/.data/test-server-$PORT.log" env NODE_ENV=production APP_DATABASE_URL="$APP_DATABASE_URL" node --import tsx server.ts -H 127.0.0.1 -p "$PORT"
+start_app "$ROOT/.data/test-server-$PORT.log"
 wait_for_http "$TEST_BASE_URL/api/lines" 240 || { log "test server did not answer"; tail -n 40 "$ROOT/.data/test-server-$PORT.log"; exit 1; }
 
 log "running every test"
