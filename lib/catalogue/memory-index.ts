@@ -81,8 +81,8 @@ const BUDGET_BYTES = Number(process.env.BANDCONE_FITNESS_CACHE_MB ?? 160) * 1024
 
 const state = globalThis as unknown as { bandconeCatalogueCopy?: Promise<Snapshot> };
 
-/** How the copy has been kept up to date in this process (for the benchmark and tests). */
-export const copyStats = { fullLoads: 0, patches: 0, patchedCurves: 0 };
+/** How the copy has been kept up to date in this process (tests read it). */
+export const copyStats = { fullLoads: 0, patches: 0 };
 
 const EDGES = FWHM_BUCKETS.slice(1).map(([a]) => a);
 
@@ -499,7 +499,6 @@ async function refreshSnapshot(old: Snapshot): Promise<Snapshot> {
   });
   await carry(old.fine, s.fine, (b, key) => patchFine(b, s, from, added, key.slice('fine|'.length)));
   copyStats.patches++;
-  copyStats.patchedCurves += changed.size;
   return s;
 }
 
@@ -507,7 +506,7 @@ async function refreshSnapshot(old: Snapshot): Promise<Snapshot> {
  * The copy at `version`: the old rows of unchanged curves and the fresh rows, in id order.
  * `from[j]` is the old row that new row j came from, or -1 for a fresh one.
  */
-export function mergeSnapshot(old: Snapshot, version: string, changed: Set<number>, fresh: SnapshotRow[]): { s: Snapshot; from: Int32Array } {
+function mergeSnapshot(old: Snapshot, version: string, changed: Set<number>, fresh: SnapshotRow[]): { s: Snapshot; from: Int32Array } {
   let kept = 0;
   for (let i = 0; i < old.n; i++) if (!changed.has(old.ids[i])) kept++;
   const s = emptySnapshot(version, kept + fresh.length);
