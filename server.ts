@@ -5,15 +5,19 @@
 //   node --import tsx server.ts [-H 127.0.0.1] [-p 3000] [--dev]
 //
 // PORT and HOST are read from the environment when the flags are absent. TRUSTED_PROXIES=N
-// says N reverse proxies of ours stand in front (lib/http/client-address.ts).
+// says N reverse proxies of ours stand in front (lib/http/client-address.ts). WEB_CONCURRENCY=N
+// (default 1) serves from N processes sharing the port (Node's cluster, round-robin): a page is
+// CPU-bound work in one JavaScript thread, so one process uses one core however many there are.
+// Each process keeps its own catalogue copy; only the first sends mail.
+import cluster from 'node:cluster';
 import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import next from 'next';
 import { forwardedChain, trustedProxyCount } from './lib/http/client-address';
 import { guardRequest } from './lib/http/request-guard';
 import { databaseRecentlyLost, databaseUp, UNAVAILABLE_PAGE } from './lib/http/database-health';
 import { RETRY_AFTER_SECONDS } from './lib/http/unavailable';
+import { DEFAULT_FITNESS_CACHE_MB } from './lib/catalogue/cache-budget';
 
 function flag(name: string): string | undefined {
   const i = process.argv.indexOf(name);
@@ -62,6 +66,8 @@ function answerLostDatabaseAs503(res: ServerResponse) {
 }
 
 async function main() {
+  // Imported here so that a supervising process (WEB_CONCURRENCY > 1) never loads Next at all.
+  const { default: next } = await import('next');
   const app = next({ dev, dir, hostname, port });
   const handle = app.getRequestHandler();
   await app.prepare();
@@ -110,7 +116,41 @@ async function main() {
   process.on('SIGINT', stop);
 }
 
-main().catch((err: unknown) => {
-  console.error(err);
-  process.exit(1);
-});
+/** Forks `count` serving processes and replaces any that dies, until told to stop. */
+function supervise(count: number) {
+  let stopping = false;
+  const fork = (index: number) => {
+    const worker = cluster.fork({
+      BANDCONE_WORKER_INDEX: String(index),
+      // The fitness blocks' memory budget is shared out, so N copies together keep to one budget.
+      BANDCONE_FITNESS_CACHE_MB: process.env.BANDCONE_FITNESS_CACHE_MB ?? String(Math.floor(DEFAULT_FITNESS_CACHE_MB / count)),
+      ...(index > 0 ? { MAIL_WORKER: '0' } : {}),
+    });
+    worker.on('exit', (code, signal) => {
+      if (stopping) return;
+      console.error(`serving process ${index} ended (${signal ?? code}); starting another`);
+      setTimeout(() => fork(index), 1000);
+    });
+  };
+  for (let i = 0; i < count; i++) fork(i);
+  const stop = () => {
+    stopping = true;
+    for (const w of Object.values(cluster.workers ?? {})) w?.process.kill('SIGTERM');
+    const done = () => (Object.keys(cluster.workers ?? {}).length === 0 ? process.exit(0) : setTimeout(done, 100));
+    done();
+    setTimeout(() => process.exit(0), 7000).unref();
+  };
+  process.on('SIGTERM', stop);
+  process.on('SIGINT', stop);
+}
+
+const concurrency = Math.max(1, Math.min(16, Math.floor(Number(process.env.WEB_CONCURRENCY ?? 1)) || 1));
+if (cluster.isPrimary && concurrency > 1 && !dev) {
+  console.log(`Bandcone serving from ${concurrency} processes`);
+  supervise(concurrency);
+} else {
+  main().catch((err: unknown) => {
+    console.error(err);
+    process.exit(1);
+  });
+}

@@ -20,6 +20,7 @@ import { db } from '@/db/models';
 import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
 import { FINE_INTERVALS, LEVEL_LENGTH, LEVEL_STEPS } from './fitness-grid';
 import { FWHM_BUCKETS } from './search-params';
+import { fitnessCacheBytes } from './cache-budget';
 
 /** One level of the fitness grid for one line: the stored running sums (LEVEL_LENGTH per row), as in curve_fitness. */
 export interface GridBlock {
@@ -77,7 +78,7 @@ export class StaleCopy extends Error {
   }
 }
 
-const BUDGET_BYTES = Number(process.env.BANDCONE_FITNESS_CACHE_MB ?? 160) * 1024 * 1024;
+const BUDGET_BYTES = fitnessCacheBytes();
 
 const state = globalThis as unknown as { bandconeCatalogueCopy?: Promise<Snapshot> };
 
