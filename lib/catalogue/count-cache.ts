@@ -1,8 +1,9 @@
 /**
  * Totals and facet counts of recent searches, kept for a short while. Paging and
  * re-sorting ask for the same counts again, and counting is the one part of a
- * search that must visit every match. Counts can lag a new verification by at
- * most TTL_MS (this process forgets them at once; other app servers on expiry).
+ * search that must visit every match. Callers put the catalogue version in the
+ * key, so a count kept by one process is never served after a verification in
+ * another; this process also forgets them at once.
  */
 export const COUNT_TTL_MS = 30_000;
 const MAX_ENTRIES = 500;

@@ -21,6 +21,7 @@ import { cachedCounts } from './count-cache';
 import { binaryArraySql, readFloat8Array } from './binary-array';
 import { curvePointsByIds } from './points';
 import { answeredInMemory, searchInMemory, type CountGroup } from './memory-search';
+import { currentVersion } from './memory-index';
 import { byContrast, contrastOf, CONTRAST_CANDIDATES, CONTRAST_REFERENCE_BOX_NM, DEFAULT_CONTRAST_SKY } from './contrast';
 
 export interface SearchItem {
@@ -371,10 +372,11 @@ export async function searchCurves(actor: Actor | null, p: SearchParams, options
   const { sequelize } = db();
   const [rows, groups] = await Promise.all([
     sequelize.query<PageRow>(pageSql, { bind: pageBind, type: QueryTypes.SELECT }),
-    // only the public catalogue's counts are kept: it changes only when a curve is verified, which clears them
+    // only the public catalogue's counts are kept, under its version: any verification in any
+    // process or app server moves the version, so a kept count never outlives the catalogue it counted
     actor
       ? countGroups(facetSql, facetBind)
-      : cachedCounts(`${facetSql}\n${JSON.stringify(facetBind)}`, () => countGroups(facetSql, facetBind)),
+      : currentVersion().then((v) => cachedCounts(`${v}\n${facetSql}\n${JSON.stringify(facetBind)}`, () => countGroups(facetSql, facetBind))),
   ]);
   return assemble(p, pl, { sort, dir, page, pageSize }, rows, groups);
 }
