@@ -1,7 +1,7 @@
 import { QueryTypes } from 'sequelize';
 import { getSequelize } from '@/db/connection';
 import { isPermanentSmtpFailure, sendMail } from './send';
-import { MAIL_QUEUE, REGISTER_QUEUE, RESET_QUEUE, boss, rememberWorker, wakeWorker } from './queue';
+import { MAIL_QUEUE, PGBOSS_SCHEMA, REGISTER_QUEUE, RESET_QUEUE, boss, rememberWorker, wakeWorker } from './queue';
 import { pruneSessions } from '@/lib/auth/sessions';
 import { prepareRegistration, prepareResetMail, type RegistrationRequest } from '@/lib/account/flows';
 
@@ -46,6 +46,27 @@ export async function deliver(mailId: number): Promise<'sent' | 'skipped' | 'fai
   return 'sent';
 }
 
+/**
+ * A message whose job the queue no longer holds (every try expired while a process died mid-send,
+ * or the job was archived) would otherwise read "queued" for ever. Such rows are marked failed,
+ * so the admin's mail page says what happened. Jobs are written in the transaction of their row,
+ * so a queued row without a live job is never one about to be sent.
+ */
+export async function sweepAbandonedMail(): Promise<number> {
+  const [rows] = await getSequelize().query(
+    `UPDATE outgoing_mail m
+        SET state = 'failed', last_error = 'the queue gave up on this message (its tries ran out while a server was stopped or stuck)',
+            text_body = CASE WHEN m.sensitive THEN NULL ELSE m.text_body END
+      WHERE m.state = 'queued' AND m.created_at < now() - interval '1 minute'
+        AND NOT EXISTS (
+          SELECT 1 FROM ${PGBOSS_SCHEMA}.job j
+           WHERE j.name = :queue AND j.state IN ('created', 'retry', 'active') AND j.data->>'mailId' = m.id::text)
+      RETURNING m.id`,
+    { replacements: { queue: MAIL_QUEUE } },
+  );
+  return (rows as unknown[]).length;
+}
+
 let starting: Promise<void> | undefined;
 
 /** Messages sent at once by one server process (MAIL_SENDERS, default 4). */
@@ -84,6 +105,7 @@ export function startMailWorker(): Promise<void> {
     rememberWorker(REGISTER_QUEUE, await handle<RegistrationRequest>(REGISTER_QUEUE, prepareRegistration));
     // Ended sessions are kept a while for the record, then dropped.
     setInterval(() => void pruneSessions().catch(() => undefined), 3600_000).unref();
+    setInterval(() => void sweepAbandonedMail().catch(() => undefined), 300_000).unref();
   })();
   return starting;
 }
