@@ -17,7 +17,8 @@
 
 import { QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
-import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
+import { LINE_IDS } from '@/lib/engine/lines';
+import { INSTRUMENTS } from '@/lib/engine/limits';
 import { FINE_INTERVALS, LEVEL_LENGTH, LEVEL_STEPS } from './fitness-grid';
 import { FWHM_BUCKETS } from './search-params';
 

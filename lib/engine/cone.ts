@@ -12,6 +12,7 @@
 
 import { interpolate, locate, prepareCurve, segmentMoment, type PreparedCurve } from './curve';
 import { EngineInputError, type InputDetail } from './errors';
+import { inRange, MODEL_REACH, REQUEST_LIMITS } from './limits';
 import { halfMaximumEdges } from './metrics';
 import type { Pupil } from './pupil';
 import type { CurvePoints, ShiftParams } from './types';
@@ -27,15 +28,17 @@ const MAX_EXHAUSTIVE_STEPS = 6000;
 export function validateShift(p: ShiftParams): InputDetail[] {
   const d: InputDetail[] = [];
   const num = (v: unknown) => typeof v === 'number' && Number.isFinite(v);
-  if (!num(p.nEff) || p.nEff < 1 || p.nEff > 4) d.push({ field: 'nEff', message: 'the effective index must be between 1.0 and 4.0' });
-  if (p.measuredAoiDeg !== undefined && (!num(p.measuredAoiDeg) || p.measuredAoiDeg < 0 || p.measuredAoiDeg > 80)) {
-    d.push({ field: 'measuredAoiDeg', message: 'the measurement AOI must be between 0 and 80 degrees' });
+  const { nEff, tempCoeffNmPerC } = REQUEST_LIMITS;
+  const { measuredAoiDeg, preShiftNm } = MODEL_REACH;
+  if (!inRange(p.nEff, nEff)) d.push({ field: 'nEff', message: `the effective index must be between ${nEff[0].toFixed(1)} and ${nEff[1].toFixed(1)}` });
+  if (p.measuredAoiDeg !== undefined && !inRange(p.measuredAoiDeg, measuredAoiDeg)) {
+    d.push({ field: 'measuredAoiDeg', message: `the measurement AOI must be between ${measuredAoiDeg[0]} and ${measuredAoiDeg[1]} degrees` });
   }
   for (const f of ['preShiftNm', 'tempCoeffNmPerC', 'tempC', 'refTempC'] as const) {
     if (p[f] !== undefined && !num(p[f])) d.push({ field: f, message: `${f} must be a finite number` });
   }
-  if (num(p.preShiftNm) && Math.abs(p.preShiftNm!) > 200) d.push({ field: 'preShiftNm', message: 'the pre-shift must be within ±200 nm' });
-  if (num(p.tempCoeffNmPerC) && Math.abs(p.tempCoeffNmPerC!) > 1) d.push({ field: 'tempCoeffNmPerC', message: 'the temperature coefficient must be within ±1 nm/°C' });
+  if (num(p.preShiftNm) && !inRange(p.preShiftNm, preShiftNm)) d.push({ field: 'preShiftNm', message: `the pre-shift must be within ±${preShiftNm[1]} nm` });
+  if (num(p.tempCoeffNmPerC) && !inRange(p.tempCoeffNmPerC, tempCoeffNmPerC)) d.push({ field: 'tempCoeffNmPerC', message: `the temperature coefficient must be within ±${tempCoeffNmPerC[1]} nm/°C` });
   return d;
 }
 

@@ -13,6 +13,7 @@
  */
 
 import { EngineInputError, type InputDetail } from './errors';
+import { MODEL_REACH, REQUEST_LIMITS } from './limits';
 import { gaussLegendre01 } from './quadrature';
 import type { AngleBin, Mapping, Optic } from './types';
 
@@ -47,7 +48,8 @@ export const DEFAULT_BINS = 128;
 export const DEFAULT_NODES_PER_PIECE = 20;
 /** Extra edges on each side of a kink, at h/2, h/4, … h/2^levels. */
 const GRADING_LEVELS = 3;
-export const MAX_FIELD_ANGLE_DEG = 45;
+/** How far a field angle reaches in the model (lib/engine/limits.ts). */
+export const MAX_FIELD_ANGLE_DEG = MODEL_REACH.fieldAngleDeg[1];
 const DEG = Math.PI / 180;
 
 export function validateOptic(optic: Optic): Required<Optic> {
@@ -57,8 +59,8 @@ export function validateOptic(optic: Optic): Required<Optic> {
   const obstruction = o.obstruction ?? 0;
   const fieldAngleDeg = o.fieldAngleDeg ?? 0;
   const mapping: Mapping = o.mapping ?? 'tangent';
-  if (typeof fNumber !== 'number' || !Number.isFinite(fNumber) || fNumber < 0.5) {
-    details.push({ field: 'optic.fNumber', message: 'the f-number must be a number of at least 0.5' });
+  if (typeof fNumber !== 'number' || !Number.isFinite(fNumber) || fNumber < REQUEST_LIMITS.fNumber[0]) {
+    details.push({ field: 'optic.fNumber', message: `the f-number must be a number of at least ${REQUEST_LIMITS.fNumber[0]}` });
   }
   if (typeof obstruction !== 'number' || !Number.isFinite(obstruction) || obstruction < 0 || obstruction >= 1) {
     details.push({ field: 'optic.obstruction', message: 'the central obstruction ratio must be at least 0 and below 1' });

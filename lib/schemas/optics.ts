@@ -1,4 +1,5 @@
 import { z } from './zod';
+import { REQUEST_LIMITS } from '@/lib/engine/limits';
 
 /**
  * One schema for the optics form and the /api/optics handlers. An optic is typed
@@ -9,9 +10,9 @@ import { z } from './zod';
  */
 
 export const OPTIC_LIMITS = {
-  fNumber: [0.5, 40],
+  fNumber: REQUEST_LIMITS.fNumber,
   obstruction: [0, 0.9],
-  fieldAngleDeg: [0, 30],
+  fieldAngleDeg: REQUEST_LIMITS.fieldAngleDeg,
   reducerFactor: [0.1, 5],
 } as const;
 
