@@ -166,6 +166,13 @@ export function searchableCurvesSql(actor: Actor | null, status: StatusFilter | 
   return curveSql(curveSearchRule(actor, status), actor, bind);
 }
 
+/** What a visitor's search lists (the public catalogue, which the in-process copy holds), as an SQL condition on `curves` under `alias`. */
+export function publicCatalogueSql(alias = 'c'): string {
+  return curveSql(curveSearchRule(null), null, () => {
+    throw new Error('the public catalogue binds no reader');
+  }, alias);
+}
+
 /** Optics: the public examples, and a signed-in reader's own, as a Sequelize `where` on Optic. */
 export function visibleOpticsWhere(actor: Actor | null): WhereOptions {
   return actor ? { [Op.or]: [{ isExample: true }, { ownerId: actor.id }] } : { isExample: true };

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { curveMatches, curveReadRule, curveSearchRule, curveSql, curveWhere, searchWithinPublic, visibleOpticsSql, type CurveRule } from '@/lib/auth/policy';
+import { publicCatalogueSql, curveMatches, curveReadRule, curveSearchRule, curveSql, curveWhere, searchWithinPublic, visibleOpticsSql, type CurveRule } from '@/lib/auth/policy';
 import { CURVES, ME, OTHER, READ, ROLES, SEARCH, statusOf, type RoleName } from '../../support/visibility-table';
 
 // Table-driven over every role (tests/support/visibility-table.ts states the rules row by row).
@@ -71,6 +71,10 @@ describe('renderings', () => {
   it('Sequelize: a moderator reads without a condition, a visitor through one OR', () => {
     expect(curveWhere(curveReadRule(ROLES.moderator), ROLES.moderator)).toEqual({});
     expect(Object.getOwnPropertySymbols(curveWhere(curveReadRule(null), null))).toHaveLength(1);
+  });
+
+  it("the public catalogue is a visitor's search", () => {
+    expect(publicCatalogueSql()).toBe(`c.status = 'verified'`);
   });
 
   it('optics: examples for a visitor, examples and their own for a signed-in reader', () => {
