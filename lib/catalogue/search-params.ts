@@ -7,6 +7,7 @@
 import { z } from '@/lib/schemas/zod';
 import { LINE_IDS } from '@/lib/engine/lines';
 import { INSTRUMENTS, REQUEST_LIMITS as L } from '@/lib/engine/limits';
+import { marginalRayDeg } from '@/lib/engine/pupil';
 
 export const SORTS = ['relevance', 'cwl', 'fwhm', 'peak', 'throughput', 'newest', 'contrast'] as const;
 /** Sky models the contrast sort accepts (lib/engine/sky.ts). */
@@ -88,7 +89,7 @@ export const searchParamsSchema = z
       if (p.sort === 'throughput') ctx.addIssue({ code: 'custom', path: ['sort'], message: 'sorting by throughput needs an optic: give fNumber (and obstruction)' });
       if (p.sort === 'contrast') ctx.addIssue({ code: 'custom', path: ['sort'], message: 'sorting by contrast needs an optic: give fNumber (and obstruction)' });
     }
-    if (p.fNumber !== undefined && p.fieldAngleDeg !== undefined && p.fieldAngleDeg + (Math.atan(1 / (2 * p.fNumber)) * 180) / Math.PI >= 89.9) {
+    if (p.fNumber !== undefined && p.fieldAngleDeg !== undefined && p.fieldAngleDeg + marginalRayDeg(p.fNumber) >= 89.9) {
       ctx.addIssue({ code: 'custom', path: ['fieldAngleDeg'], message: 'this field angle and f-number send light in at grazing incidence' });
     }
   });

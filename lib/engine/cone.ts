@@ -11,13 +11,13 @@
  */
 
 import { interpolate, locate, prepareCurve, segmentMoment, type PreparedCurve } from './curve';
+import { angleScale, angleScaleOfSin2 } from './angles';
 import { EngineInputError, type InputDetail } from './errors';
 import { inRange, MODEL_REACH, REQUEST_LIMITS } from './limits';
 import { halfMaximumEdges } from './metrics';
 import type { Pupil } from './pupil';
 import type { CurvePoints, ShiftParams } from './types';
 
-const DEG = Math.PI / 180;
 /** Reference temperature when a temperature is given without one, °C (room temperature). */
 export const DEFAULT_REF_TEMP_C = 20;
 /** Granularity of the best pre-shift, nm (docs/model.md §Throughput). */
@@ -47,11 +47,7 @@ function assertShift(p: ShiftParams): void {
   if (d.length > 0) throw new EngineInputError(`Invalid model input: ${d[0].message}.`, d);
 }
 
-/** Angle scale s(θ) = sqrt(1 − sin²θ / n²). */
-export function angleScale(thetaDeg: number, nEff: number): number {
-  const s = Math.sin(thetaDeg * DEG);
-  return Math.sqrt(1 - (s * s) / (nEff * nEff));
-}
+export { angleScale };
 
 /** Temperature part of Δ: k·(t − t_ref); zero unless both k and t are given. */
 export function temperatureShiftNm(p: ShiftParams): number {
@@ -82,7 +78,7 @@ export function coneKernel(pupil: Pupil, nEff: number): ConeKernel {
   const q = pupil.sin2Edges;
   const K = pupil.weights.length;
   const inv = 1 / (nEff * nEff);
-  const gOf = (v: number) => 1 / Math.sqrt(1 - v * inv);
+  const gOf = (v: number) => 1 / angleScaleOfSin2(v, inv);
   const g = new Float64Array(K + 1);
   for (let k = 0; k <= K; k++) g[k] = gOf(q[k]);
   const c0 = new Float64Array(K);
@@ -197,7 +193,8 @@ export interface LineThroughput {
   covered: boolean;
 }
 
-function frame(p: ShiftParams) {
+/** The measurement frame: s_m, the scale at the measurement AOI (1 at normal incidence), and the total shift Δ. */
+export function shiftFrame(p: ShiftParams): { sM: number; shift: number } {
   const sM = p.measuredAoiDeg ? angleScale(p.measuredAoiDeg, p.nEff) : 1;
   return { sM, shift: totalShiftNm(p) };
 }
@@ -213,7 +210,7 @@ export function lineThroughput(
     throw new EngineInputError('The line wavelength must be a positive number.', [{ field: 'lineNm', message: 'must be > 0' }]);
   }
   const c = prepareCurve(points);
-  const { sM, shift } = frame(params);
+  const { sM, shift } = shiftFrame(params);
   const kernel = coneKernel(pupil, params.nEff);
   const out = new Float64Array(1);
   const outside = new Uint8Array(1);
@@ -247,7 +244,7 @@ export function coneCurve(
 ): ConeCurve {
   assertShift(params);
   const c = prepareCurve(points);
-  const { sM, shift } = frame(params);
+  const { sM, shift } = shiftFrame(params);
   const kernel = coneKernel(pupil, params.nEff);
   const g = kernel.g;
   const K = pupil.weights.length;
@@ -302,7 +299,7 @@ export interface PreShiftResult {
 export function normalIncidenceFwhm(c: PreparedCurve, params: ShiftParams): number | null {
   const { leftNm, rightNm } = halfMaximumEdges(c);
   if (leftNm === null || rightNm === null || !(c.peak > 0)) return null;
-  return (rightNm - leftNm) / frame(params).sM;
+  return (rightNm - leftNm) / shiftFrame(params).sM;
 }
 
 /**
@@ -330,7 +327,7 @@ export function bestPreShift(
     lo = -fwhm;
     hi = 2 * fwhm;
   }
-  const { sM } = frame(params);
+  const { sM } = shiftFrame(params);
   const tempShift = temperatureShiftNm(params);
   const kernel = coneKernel(pupil, params.nEff);
   const A0 = sM * lambdaNm;

@@ -27,6 +27,7 @@
  * so share(X) = (1 / ab) ∫ L(r) · [τ(r) ≥ X] dr, integrated by the midpoint rule.
  */
 
+import { DEG } from './angles';
 import { lineThroughput } from './cone';
 import { prepareCurve, type PreparedCurve } from './curve';
 import { EngineInputError, type InputDetail } from './errors';
@@ -34,7 +35,6 @@ import { inRange, REQUEST_LIMITS } from './limits';
 import { buildPupil, MAX_FIELD_ANGLE_DEG } from './pupil';
 import type { CurvePoints, Mapping, ShiftParams } from './types';
 
-const DEG = Math.PI / 180;
 
 export interface ChiefRayRow {
   imageHeightMm: number;
