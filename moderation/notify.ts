@@ -1,8 +1,7 @@
 import type { Transaction } from 'sequelize';
 import { db } from '@/db/models';
 import { enqueueMail } from '@/lib/mail/queue';
-
-const site = () => process.env.NEXTAUTH_URL ?? 'http://127.0.0.1:3000';
+import { siteUrl } from '@/lib/http/site';
 
 const DECISION_WORDS: Record<string, string> = {
   verify: 'verified and published',
@@ -22,7 +21,7 @@ export async function notifyModeratorsOfSubmission(submissionId: number, label: 
     kind: 'review_queue',
     to: moderators.map((m) => m.email),
     subject: `Review queue: ${label}${revision > 1 ? ` (revision ${revision})` : ''}`,
-    text: `A submission is waiting for review: ${label}.\n${waiting} submission(s) are now in the queue.\n\n${site()}/review/${submissionId}`,
+    text: `A submission is waiting for review: ${label}.\n${waiting} submission(s) are now in the queue.\n\n${siteUrl()}/review/${submissionId}`,
   }, transaction);
 }
 
@@ -34,11 +33,11 @@ export async function notifyContributorOfDecision(submissionId: number, email: s
     text:
       `A moderator ${DECISION_WORDS[decision] ?? decision} your submission "${label}".\n\n` +
       (note ? `Their note:\n${note}\n\n` : '') +
-      `See it and answer at ${site()}/account/submissions/${submissionId}`,
+      `See it and answer at ${siteUrl()}/account/submissions/${submissionId}`,
   }, transaction);
 }
 
 export async function notifyOfNote(submissionId: number, to: string[], label: string, author: string, body: string, forModerators: boolean, transaction: Transaction) {
-  const link = forModerators ? `${site()}/review/${submissionId}` : `${site()}/account/submissions/${submissionId}`;
+  const link = forModerators ? `${siteUrl()}/review/${submissionId}` : `${siteUrl()}/account/submissions/${submissionId}`;
   await enqueueMail({ kind: 'note', to, subject: `New note on "${label}"`, text: `${author} wrote:\n\n${body}\n\n${link}` }, transaction);
 }

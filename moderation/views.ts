@@ -4,8 +4,6 @@ import { hasRole, type Actor } from '@/lib/auth/actor';
 import { SUBMISSION_STATUSES } from '@/db/models/submission';
 import { forbidden, notFound, unprocessable } from '@/lib/http/errors';
 
-export { parseId } from '@/lib/http/ids';
-
 type WithAuthor = { author?: { name: string | null; email: string } };
 type WithContributor = { contributor?: { name: string | null; email: string } };
 

@@ -10,6 +10,7 @@ import pg from 'pg';
 import { Sequelize, QueryTypes } from 'sequelize';
 import { createMigrator } from '@/db/migrator';
 import { computeMetrics } from '@/lib/engine/metrics';
+import { angleScale } from '@/lib/engine/angles';
 import { FILTER_MODELS, LABS, DEMO_NOTICE } from './world/catalogue';
 import { multiCavityPassband } from './world/shapes';
 import { createRng, type Rng } from './world/prng';
@@ -98,7 +99,7 @@ function generate(i: number, id: number, contributors: string[]): Generated {
   // about one curve in twenty is measured off-normal, as curve sets are
   const aoiDeg = rng.next() < 0.05 ? [4, 8, 12, 16][rng.int(0, 3)] : 0;
   const nEff = 1.7 + rng.next() * 0.5;
-  const s = Math.sqrt(1 - Math.sin((aoiDeg * Math.PI) / 180) ** 2 / (nEff * nEff));
+  const s = angleScale(aoiDeg, nEff);
   const shape = multiCavityPassband({
     bands: bands.map((b) => ({ ...b, cwlNm: b.cwlNm * s, fwhmNm: b.fwhmNm * s })),
     rippleAmplitude: 0.005 + rng.next() * 0.015,

@@ -3,6 +3,7 @@
 import { useEffect, useId, useRef, useState } from 'react';
 import { formatNm } from '@/components/charts/format';
 import { findLine } from '@/lib/engine/lines';
+import { inRange, REQUEST_LIMITS } from '@/lib/engine/limits';
 import type { StudyCurve } from '@/lib/study/types';
 
 type Hit = { id: number; label: string; lines: string[]; cwlNm: number | null; fwhmNm: number | null; status: string; aoiDeg?: number };
@@ -139,7 +140,7 @@ export function PasteCurve({ onAdd, disabled, count }: { onAdd: (c: StudyCurve) 
         source: 'pasted',
         status: null,
         lines: [],
-        aoiDeg: Number.isFinite(aoiDeg) && aoiDeg >= 0 && aoiDeg <= 60 ? aoiDeg : 0,
+        aoiDeg: inRange(aoiDeg, REQUEST_LIMITS.measuredAoiDeg) ? aoiDeg : 0,
         nEff: null,
         tempC: null,
         cwlNm: p.metrics.cwlNm,

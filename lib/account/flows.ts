@@ -6,13 +6,10 @@ import { revokeAllSessions } from '@/lib/auth/sessions';
 import { enqueueJob, enqueueMail, REGISTER_QUEUE, RESET_QUEUE } from '@/lib/mail/queue';
 import { audit } from '@/lib/audit';
 import { unprocessable } from '@/lib/http/errors';
+import { siteUrl } from '@/lib/http/site';
 
 const HOUR = 3600_000;
 type Purpose = 'confirm_email' | 'reset_password';
-
-export function siteUrl(): string {
-  return process.env.NEXTAUTH_URL ?? 'http://127.0.0.1:3000';
-}
 
 async function issueToken(userId: string, purpose: Purpose, hours: number, transaction: Transaction) {
   const { UserToken } = db();

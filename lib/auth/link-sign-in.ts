@@ -2,6 +2,7 @@ import { NextResponse } from 'next/server';
 import { db } from '@/db/models';
 import { audit } from '@/lib/audit';
 import { enqueueMail } from '@/lib/mail/queue';
+import { siteUrl } from '@/lib/http/site';
 import { clientAddress, overLimit } from '@/lib/rate-limit';
 import { revokeAllSessions } from './sessions';
 
@@ -13,8 +14,6 @@ import { revokeAllSessions } from './sessions';
 //   is not the owner's, so it is removed (see acceptLinkSignIn).
 
 export const LINK_LIMITS = { perAddress: 20, perRecipient: 5, windowSeconds: 3600 };
-
-const site = () => process.env.NEXTAUTH_URL ?? 'http://127.0.0.1:3000';
 
 export function isLinkRequest(req: Request): boolean {
   return req.method === 'POST' && new URL(req.url).pathname.endsWith('/api/auth/signin/email');
@@ -37,7 +36,7 @@ export async function guardLinkRequest(req: Request): Promise<Response | null> {
       error: 'Too many sign-in links were asked for; try again in an hour, or sign in with your password.',
       details: [],
       // next-auth's client reads `url` and shows the sign-in page with this error.
-      url: `${site()}/signin?error=LinkRateLimited`,
+      url: `${siteUrl()}/signin?error=LinkRateLimited`,
     },
     { status: 429, headers: { 'retry-after': String(LINK_LIMITS.windowSeconds) } },
   );
@@ -69,7 +68,7 @@ export async function sendSignInLink(identifier: string, url: string): Promise<v
         subject: 'Signing in to Bandcone',
         text: user
           ? 'Someone asked for a Bandcone sign-in link for this address, but the account is disabled. Contact an administrator if you need it back.\n'
-          : `Someone asked for a Bandcone sign-in link for this address, but there is no account for it. To contribute curves, create an account at ${site()}/register.\n\nIf it was not you, ignore this message.\n`,
+          : `Someone asked for a Bandcone sign-in link for this address, but there is no account for it. To contribute curves, create an account at ${siteUrl()}/register.\n\nIf it was not you, ignore this message.\n`,
       }, transaction);
     }
   });
@@ -105,7 +104,7 @@ export async function acceptLinkSignIn(email: string): Promise<true | string> {
           text:
             `You signed in to Bandcone by e-mail link, which confirmed ${user.email}.\n\n` +
             'This account had a password that was set before the address was confirmed. Since we cannot know it was you who chose it, ' +
-            `we removed it: nobody can sign in with it any more. To sign in with a password, choose a new one at ${site()}/reset-password; ` +
+            `we removed it: nobody can sign in with it any more. To sign in with a password, choose a new one at ${siteUrl()}/reset-password; ` +
             'until then, sign in by e-mail link.\n',
         }, transaction);
       }

@@ -1,3 +1,4 @@
+import { readId } from '@/lib/http/ids';
 import { parseSearchParams } from './search-params';
 
 /** The compare board shows at most eight curves (docs/design.md §Charts: never more than 8 series). */
@@ -41,9 +42,8 @@ export function parseCompareIds(raw: string | string[] | undefined): number[] {
   const text = Array.isArray(raw) ? raw.join(',') : (raw ?? '');
   const ids: number[] = [];
   for (const part of text.split(',')) {
-    const t = part.trim();
-    const n = Number(t);
-    if (/^\d+$/.test(t) && Number.isSafeInteger(n) && n > 0 && n <= 2_147_483_647 && !ids.includes(n)) ids.push(n);
+    const n = readId(part.trim());
+    if (n !== null && !ids.includes(n)) ids.push(n);
   }
   return ids.slice(0, MAX_COMPARE);
 }

@@ -213,14 +213,3 @@ export function csvMetadata(d: CurveDetail): Record<string, string | number | st
     citation: d.citation,
   };
 }
-
-
-/** Where citations point: the configured public address, else the address the request came to. */
-export function publicOrigin(fallback: string): string {
-  const configured = process.env.NEXTAUTH_URL;
-  try {
-    return configured ? new URL(configured).origin : fallback;
-  } catch {
-    return fallback;
-  }
-}

@@ -6,6 +6,7 @@
 import { QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
 import { HttpError, unprocessable } from '@/lib/http/errors';
+import { publicCatalogueSql } from '@/lib/auth/policy';
 import { csvRow } from '@/lib/csv/safe';
 import { citationOf } from './detail';
 import { matchingVerifiedIds } from './search';
@@ -25,7 +26,7 @@ async function loadBatch(ids: number[]): Promise<ExportRow[]> {
   const rows = await db().sequelize.query<ExportRow>(
     `SELECT c.id, c.label, c.maker, c.lines, c.serial, c.licence, c.revision, c.instrument, c.aoi_deg, c.lab, c.measured_on, c.verified_at,
             c.created_at, c.cwl_nm, c.fwhm_nm, c.peak_t, u.name AS contributor, c.wavelength_nm, c.transmission
-     FROM curves c JOIN users u ON u.id = c.contributor_id WHERE c.id = ANY($1::int[]) AND c.status = 'verified'`,
+     FROM curves c JOIN users u ON u.id = c.contributor_id WHERE c.id = ANY($1::int[]) AND ${publicCatalogueSql()}`,
     { bind: [ids], type: QueryTypes.SELECT },
   );
   const byId = new Map(rows.map((r) => [r.id, r]));

@@ -24,7 +24,7 @@
  * off-normal curve also keeps `fine`, for searches that name their own n_eff.
  */
 
-import { angleScale } from '@/lib/engine/cone';
+import { angleScale, angleScaleOfSin2, angleScaleSql, DEG } from '@/lib/engine/angles';
 import { cumulativeAt, prepareCurve, type PreparedCurve } from '@/lib/engine/curve';
 import { findLine } from '@/lib/engine/lines';
 import { buildPupil, type Pupil } from '@/lib/engine/pupil';
@@ -115,7 +115,7 @@ export function computeFitnessGrid(input: GridInput): GridRow[] {
     const line = findLine(lineId);
     if (!line) continue;
     const direct = fill(c, (r) => sM * line.airNm * (1 + r));
-    const fineOrigin = Math.cos((input.aoiDeg * Math.PI) / 180) * line.airNm;
+    const fineOrigin = Math.cos(input.aoiDeg * DEG) * line.airNm;
     const fine = input.aoiDeg > 0 ? fill(c, (r) => fineOrigin * (1 + r), [FINE_STEP], FINE_INTERVALS) : null;
     let canonical: Int32Array | null = null;
     if (nDef !== DEFAULT_N_EFF) {
@@ -147,12 +147,12 @@ export function offNormalThroughput(stored: ArrayLike<number>, aoiDeg: number, n
     if (v === undefined) throw new Error(`fine level read outside its slice (${j})`);
     return v;
   };
-  const rho = angleScale(aoiDeg, nEff) / Math.cos((aoiDeg * Math.PI) / 180);
+  const rho = angleScale(aoiDeg, nEff) / Math.cos(aoiDeg * DEG);
   const inv = 1 / (nEff * nEff);
   const e = pupil.sin2Edges;
   const K = pupil.weights.length;
   const h = FINE_STEP;
-  const rOf = (k: number) => rho / Math.sqrt(1 - e[k] * inv) - 1;
+  const rOf = (k: number) => rho / angleScaleOfSin2(e[k], inv) - 1;
   // The running sums are the exact integral of T at the interval edges; between edges a
   // cubic Hermite through them, with slopes from the neighbouring means, follows T's
   // changes inside an interval instead of assuming it flat.
@@ -231,10 +231,9 @@ export function applyOffNormal(c: OffNormalCoefficients, stored: ArrayLike<numbe
 export function fineSliceBounds(nEff: number, pupil: Pupil, aoiDeg: number): { first: number; last: number } {
   const inv = 1 / (nEff * nEff);
   const e = pupil.sin2Edges;
-  const rad = (aoiDeg * Math.PI) / 180;
-  const rho = Math.sqrt(1 - Math.sin(rad) ** 2 * inv) / Math.cos(rad);
-  const g0 = 1 / Math.sqrt(1 - e[0] * inv);
-  const gK = 1 / Math.sqrt(1 - e[e.length - 1] * inv);
+  const rho = angleScale(aoiDeg, nEff) / Math.cos(aoiDeg * DEG);
+  const g0 = 1 / angleScaleOfSin2(e[0], inv);
+  const gK = 1 / angleScaleOfSin2(e[e.length - 1], inv);
   return {
     first: Math.max(0, Math.floor((rho * g0 - 1) / FINE_STEP) - 3),
     last: Math.min(FINE_INTERVALS, Math.ceil((rho * gK - 1) / FINE_STEP) + 3),
@@ -245,9 +244,9 @@ export function fineSliceBounds(nEff: number, pupil: Pupil, aoiDeg: number): { f
 export function fineSliceSql(nEff: number, pupil: Pupil, aoiSql: string): { first: string; last: string } {
   const inv = 1 / (nEff * nEff);
   const e = pupil.sin2Edges;
-  const g0 = 1 / Math.sqrt(1 - e[0] * inv);
-  const gK = 1 / Math.sqrt(1 - e[e.length - 1] * inv);
-  const rho = `(sqrt(1 - sin(radians(${aoiSql}))^2 * ${inv.toPrecision(15)}) / cos(radians(${aoiSql})))`;
+  const g0 = 1 / angleScaleOfSin2(e[0], inv);
+  const gK = 1 / angleScaleOfSin2(e[e.length - 1], inv);
+  const rho = `(${angleScaleSql(aoiSql, nEff)} / cos(radians(${aoiSql})))`;
   return {
     first: `greatest(0, floor((${rho} * ${g0.toPrecision(15)} - 1) / ${FINE_STEP})::int - 3)`,
     last: `least(${FINE_INTERVALS}, ceil((${rho} * ${gK.toPrecision(15)} - 1) / ${FINE_STEP})::int + 3)`,
@@ -327,7 +326,7 @@ export function fitnessWeights(q: FitnessQuery, pupil: Pupil = buildPupil(opticO
   const e = pupil.sin2Edges;
   const K = pupil.weights.length;
   const r = new Float64Array(K + 1);
-  for (let k = 0; k <= K; k++) r[k] = 1 / Math.sqrt(1 - e[k] * inv) - 1;
+  for (let k = 0; k <= K; k++) r[k] = 1 / angleScaleOfSin2(e[k], inv) - 1;
   const lo = r[0];
   const hi = r[K];
   let level = LEVEL_STEPS.length - 1;

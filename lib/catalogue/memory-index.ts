@@ -17,7 +17,9 @@
 
 import { QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
-import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
+import { LINE_IDS } from '@/lib/engine/lines';
+import { INSTRUMENTS } from '@/lib/engine/limits';
+import { publicCatalogueSql } from '@/lib/auth/policy';
 import { FINE_INTERVALS, LEVEL_LENGTH, LEVEL_STEPS } from './fitness-grid';
 import { FWHM_BUCKETS } from './search-params';
 import { fitnessCacheBytes } from './cache-budget';
@@ -115,7 +117,7 @@ async function loadSnapshot(): Promise<Snapshot> {
   // them than with one row of several megabytes.
   const rows = await db().sequelize.query<SnapshotRow>(
     `SELECT k.version::text AS v, ${SNAPSHOT_COLUMNS}
-     FROM catalogue_version k LEFT JOIN curves c ON c.status = 'verified'`,
+     FROM catalogue_version k LEFT JOIN curves c ON ${publicCatalogueSql()}`,
     { type: QueryTypes.SELECT },
   );
   copyStats.fullLoads++;
@@ -467,7 +469,7 @@ async function refreshSnapshot(old: Snapshot): Promise<Snapshot> {
           ch AS (SELECT DISTINCT x.curve_id FROM catalogue_changes x, k WHERE x.version > $1 AND x.version <= k.version LIMIT $2),
           logged AS (SELECT count(DISTINCT x.version) AS n FROM catalogue_changes x, k WHERE x.version > $1 AND x.version <= k.version)
      SELECT k.version::text AS v, (SELECT n FROM logged)::text AS versions, ch.curve_id AS changed, ${SNAPSHOT_COLUMNS}
-     FROM k LEFT JOIN ch ON true LEFT JOIN curves c ON c.id = ch.curve_id AND c.status = 'verified'`,
+     FROM k LEFT JOIN ch ON true LEFT JOIN curves c ON c.id = ch.curve_id AND ${publicCatalogueSql()}`,
     { bind: [old.version, limit + 1], type: QueryTypes.SELECT },
   );
   const version = rows[0]?.v ?? '0';

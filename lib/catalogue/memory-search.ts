@@ -8,7 +8,8 @@
 
 import { QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
-import { hasRole, type Actor } from '@/lib/auth/actor';
+import type { Actor } from '@/lib/auth/actor';
+import { searchWithinPublic } from '@/lib/auth/policy';
 import { lineThroughput } from '@/lib/engine/cone';
 import { findLine } from '@/lib/engine/lines';
 import type { Pupil } from '@/lib/engine/pupil';
@@ -27,12 +28,11 @@ export type CountGroup = { instrument: string; bucket: number | null; lines: str
  */
 export async function answeredInMemory(actor: Actor | null, p: SearchParams): Promise<boolean> {
   if (!hasFitness(p) || p.q) return false;
-  if (p.status === 'verified') return true;
-  if (!actor) return p.status === undefined;
-  if (hasRole(actor, 'moderator') || p.status !== undefined) return false;
+  const within = searchWithinPublic(actor, p.status);
+  if (within !== 'unless-own-open') return within === 'yes';
   const own = await db().sequelize.query(
     `SELECT 1 FROM curves WHERE contributor_id = $1::uuid AND status IN ('submitted', 'changes_requested', 'rejected') LIMIT 1`,
-    { bind: [actor.id], type: QueryTypes.SELECT },
+    { bind: [actor!.id], type: QueryTypes.SELECT },
   );
   return own.length === 0;
 }

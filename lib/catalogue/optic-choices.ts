@@ -1,6 +1,6 @@
-import { Op } from 'sequelize';
 import { db } from '@/db/models';
 import type { Actor } from '@/lib/auth/actor';
+import { visibleOpticsWhere } from '@/lib/auth/policy';
 import type { OpticChoice as StudyOpticChoice } from '@/lib/study/url-state';
 
 /** An optic a reader can pick (the study's own shape), and whether it is theirs. */
@@ -12,7 +12,7 @@ export interface OpticChoice extends StudyOpticChoice {
 export async function opticChoices(actor: Actor | null): Promise<OpticChoice[]> {
   const { Optic } = db();
   const rows = await Optic.findAll({
-    where: actor ? { [Op.or]: [{ isExample: true }, { ownerId: actor.id }] } : { isExample: true },
+    where: visibleOpticsWhere(actor),
     attributes: ['id', 'name', 'fNumber', 'obstruction', 'fieldAngleDeg', 'ownerId', 'isExample'],
     order: [['isExample', 'ASC'], ['fNumber', 'ASC'], ['id', 'ASC']],
     limit: 200,

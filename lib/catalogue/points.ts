@@ -1,21 +1,13 @@
-import { Op, QueryTypes } from 'sequelize';
+import { QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
-import { hasRole, type Actor } from '@/lib/auth/actor';
+import type { Actor } from '@/lib/auth/actor';
+import { readableCurvesWhere } from '@/lib/auth/policy';
 import { notFound } from '@/lib/http/errors';
 import type { CurvePoints } from '@/lib/engine/types';
 import { binaryArraySql, readFloat8Array } from './binary-array';
 
-/**
- * Who reads which curves. The public reads verified curves, and superseded ones
- * only if they were once verified (a replaced, never-verified revision is not
- * public); contributors also read their own; moderators read all.
- */
-export function readableWhere(actor: Actor | null): Record<string | symbol, unknown> {
-  if (hasRole(actor, 'moderator')) return {};
-  const publicRows = { [Op.or]: [{ status: 'verified' }, { status: 'superseded', verifiedAt: { [Op.ne]: null } }] };
-  if (!actor) return publicRows;
-  return { [Op.or]: [publicRows, { contributorId: actor.id }] };
-}
+/** Who reads which curves: the READ rule of lib/auth/policy.ts. */
+export const readableWhere = readableCurvesWhere;
 
 export async function loadReadableCurve(actor: Actor | null, id: number, withPoints = true) {
   const { Curve } = db();

@@ -5,7 +5,9 @@
  */
 
 import { z } from '@/lib/schemas/zod';
-import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
+import { LINE_IDS } from '@/lib/engine/lines';
+import { INSTRUMENTS, REQUEST_LIMITS as L } from '@/lib/engine/limits';
+import { marginalRayDeg } from '@/lib/engine/pupil';
 
 export const SORTS = ['relevance', 'cwl', 'fwhm', 'peak', 'throughput', 'newest', 'contrast'] as const;
 /** Sky models the contrast sort accepts (lib/engine/sky.ts). */
@@ -47,14 +49,14 @@ export const searchParamsSchema = z
     fwhmMax: num('fwhmMax', 0, 500, ' nm'),
     peakMin: num('peakMin', 0, 1, ' (a fraction, 0.9 for 90 %)'),
     method: choice(INSTRUMENTS, 'method'),
-    aoiMin: num('aoiMin', 0, 60, '°'),
-    aoiMax: num('aoiMax', 0, 60, '°'),
+    aoiMin: num('aoiMin', ...L.measuredAoiDeg, '°'),
+    aoiMax: num('aoiMax', ...L.measuredAoiDeg, '°'),
     status: choice(STATUS_FILTERS, 'status'),
     contributor: z.preprocess((v) => (v === '' ? undefined : v), z.uuid({ error: 'contributor must be a contributor id' }).optional()),
-    fNumber: num('fNumber', 0.5, 40),
+    fNumber: num('fNumber', ...L.fNumber),
     obstruction: num('obstruction', 0, 0.9, ' (a diameter ratio)'),
-    nEff: num('nEff', 1, 4),
-    fieldAngleDeg: num('fieldAngleDeg', 0, 30, '°'),
+    nEff: num('nEff', ...L.nEff),
+    fieldAngleDeg: num('fieldAngleDeg', ...L.fieldAngleDeg, '°'),
     minThroughput: num('minThroughput', 0, 1, ' (a fraction, 0.85 for 85 %)'),
     sort: choice(SORTS, 'sort'),
     sky: choice(SKY_MODEL_IDS, 'sky'),
@@ -87,7 +89,7 @@ export const searchParamsSchema = z
       if (p.sort === 'throughput') ctx.addIssue({ code: 'custom', path: ['sort'], message: 'sorting by throughput needs an optic: give fNumber (and obstruction)' });
       if (p.sort === 'contrast') ctx.addIssue({ code: 'custom', path: ['sort'], message: 'sorting by contrast needs an optic: give fNumber (and obstruction)' });
     }
-    if (p.fNumber !== undefined && p.fieldAngleDeg !== undefined && p.fieldAngleDeg + (Math.atan(1 / (2 * p.fNumber)) * 180) / Math.PI >= 89.9) {
+    if (p.fNumber !== undefined && p.fieldAngleDeg !== undefined && p.fieldAngleDeg + marginalRayDeg(p.fNumber) >= 89.9) {
       ctx.addIssue({ code: 'custom', path: ['fieldAngleDeg'], message: 'this field angle and f-number send light in at grazing incidence' });
     }
   });

@@ -6,8 +6,8 @@
 
 import { QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
-import { hasRole, type Actor } from '@/lib/auth/actor';
-import { forbidden } from '@/lib/http/errors';
+import type { Actor } from '@/lib/auth/actor';
+import { searchableCurvesSql, searchWithinPublic } from '@/lib/auth/policy';
 import { lineThroughput } from '@/lib/engine/cone';
 import { wavelengthUncertaintyOf } from '@/lib/engine/quality';
 import { prepareCurve } from '@/lib/engine/curve';
@@ -77,20 +77,7 @@ export const RANK_CANDIDATES = 2000;
 const MAX_EXACT = 5000;
 
 function visibility(actor: Actor | null, p: SearchParams, s: SqlParts): string {
-  const status = p.status;
-  if (hasRole(actor, 'moderator')) {
-    if (!status) return `c.status <> 'superseded'`;
-    return status === 'any' ? 'true' : `c.status = ${s.param(status)}`;
-  }
-  if (!actor) {
-    if (status && status !== 'verified') throw forbidden('Only moderators filter by status; the public catalogue holds verified curves.');
-    return `c.status = 'verified'`;
-  }
-  const me = s.param(actor.id, '::uuid');
-  if (!status) return `c.status = 'verified' OR (c.contributor_id = ${me} AND c.status <> 'superseded')`;
-  if (status === 'verified') return `c.status = 'verified'`;
-  if (status === 'any') return `c.status = 'verified' OR c.contributor_id = ${me}`;
-  return `c.status = ${s.param(status)} AND c.contributor_id = ${me}`;
+  return searchableCurvesSql(actor, p.status, (v, cast) => s.param(v, cast));
 }
 
 interface Built {
@@ -209,7 +196,7 @@ async function exactWhereGridCannot(plan: Plan, fq: FitnessQuery) {
   const rows: Row[] = [];
   // method and FWHM are left out: the facet counts, which drop those filters in turn, need the same τ
   // every verified curve has its grid (written when it was verified); only signed-in readers see others
-  if (plan.actor) rows.push(...(await load(`c.status IN ('submitted', 'changes_requested', 'rejected', 'superseded') AND NOT EXISTS (SELECT 1 FROM curve_fitness h WHERE h.line_id = ${target()} AND h.level = 0 AND h.curve_id = c.id)`)));
+  if (searchWithinPublic(plan.actor, p.status) !== 'yes') rows.push(...(await load(`c.status IN ('submitted', 'changes_requested', 'rejected', 'superseded') AND NOT EXISTS (SELECT 1 FROM curve_fitness h WHERE h.line_id = ${target()} AND h.level = 0 AND h.curve_id = c.id)`)));
   if (p.nEff !== undefined) rows.push(...(await load(`c.aoi_deg > 0 AND c.status = 'verified'`)));
   const ids: number[] = [];
   const taus: number[] = [];

@@ -6,6 +6,7 @@
  */
 
 import { cleanPoints } from './curve';
+import { angleScale } from './angles';
 import { EngineInputError } from './errors';
 import { findLine } from './lines';
 import { fitEffectiveIndex } from './neff';
@@ -71,13 +72,8 @@ export function neffPlausibility(nEff: number, cwlNm: number): { plausible: bool
   return { plausible: true, reason: `n_eff ${nEff.toFixed(3)} lies between the low and high coating indices (${NEFF_MATERIAL_LOW}–${high}).` };
 }
 
-const DEG = Math.PI / 180;
 const nm = (v: number, d = 2) => `${v.toFixed(d)} nm`;
 
-function scale(aoiDeg: number, n: number): number {
-  const s = Math.sin(aoiDeg * DEG);
-  return Math.sqrt(1 - (s * s) / (n * n));
-}
 
 export function runChecks(input: CheckInput): Check[] {
   const { metrics: m, metadata } = input;
@@ -104,8 +100,8 @@ export function runChecks(input: CheckInput): Check[] {
     const nominal = metadata?.nominalCwlNm;
     if (nominal !== undefined && nominal > 0) {
       // at non-normal incidence the passband is expected blueward of nominal
-      const lo = nominal * scale(aoi, NEFF_PLAUSIBLE[0]) - CWL_TOLERANCE_NM;
-      const hi = nominal * scale(aoi, NEFF_PLAUSIBLE[1]) + CWL_TOLERANCE_NM;
+      const lo = nominal * angleScale(aoi, NEFF_PLAUSIBLE[0]) - CWL_TOLERANCE_NM;
+      const hi = nominal * angleScale(aoi, NEFF_PLAUSIBLE[1]) + CWL_TOLERANCE_NM;
       const where = aoi > 0 ? ` for a measurement at ${aoi}° AOI (allowing the angle shift)` : '';
       if (m.cwlNm < lo || m.cwlNm > hi) {
         add('cwl-nominal', 'warn', `Measured CWL ${nm(m.cwlNm)} is ${nm(m.cwlNm - nominal)} from the nominal ${nm(nominal)}, more than ${CWL_TOLERANCE_NM} nm${where}.`);

@@ -3,7 +3,7 @@
  * of the POST /api/model/cone response.
  */
 
-import { bestPreShift, coneCurve, lineThroughput, temperatureShiftNm, validateShift, DEFAULT_REF_TEMP_C } from './cone';
+import { bestPreShift, coneCurve, lineThroughput, shiftFrame, validateShift, DEFAULT_REF_TEMP_C } from './cone';
 import { cleanPoints, prepareCleanCurve, type PreparedCurve } from './curve';
 import { EngineInputError, type InputDetail } from './errors';
 import { dopplerShift, findLine, LINES, neighboursOf, SPEED_OF_LIGHT_KMS } from './lines';
@@ -125,9 +125,7 @@ export function runConeModel(input: ConeModelInput): ConeModelResult {
     tempC: input.tempC,
     refTempC: input.refTempC,
   };
-  const sM = input.measuredAoiDeg ? Math.sqrt(1 - Math.sin((input.measuredAoiDeg * Math.PI) / 180) ** 2 / input.nEff ** 2) : 1;
-  const tempShift = temperatureShiftNm(params);
-  const shift = (input.preShiftNm ?? 0) + tempShift;
+  const { sM, shift } = shiftFrame(params);
   if (input.tempCoeffNmPerC !== undefined && input.tempC !== undefined && input.refTempC === undefined) {
     warnings.push(`No reference temperature was given; the temperature shift uses ${DEFAULT_REF_TEMP_C} °C.`);
   }

@@ -11,12 +11,13 @@
  */
 
 import { interpolate, locate, prepareCurve, segmentMoment, type PreparedCurve } from './curve';
+import { angleScale, angleScaleOfSin2 } from './angles';
 import { EngineInputError, type InputDetail } from './errors';
+import { inRange, MODEL_REACH, REQUEST_LIMITS } from './limits';
 import { halfMaximumEdges } from './metrics';
 import type { Pupil } from './pupil';
 import type { CurvePoints, ShiftParams } from './types';
 
-const DEG = Math.PI / 180;
 /** Reference temperature when a temperature is given without one, °C (room temperature). */
 export const DEFAULT_REF_TEMP_C = 20;
 /** Granularity of the best pre-shift, nm (docs/model.md §Throughput). */
@@ -27,15 +28,17 @@ const MAX_EXHAUSTIVE_STEPS = 6000;
 export function validateShift(p: ShiftParams): InputDetail[] {
   const d: InputDetail[] = [];
   const num = (v: unknown) => typeof v === 'number' && Number.isFinite(v);
-  if (!num(p.nEff) || p.nEff < 1 || p.nEff > 4) d.push({ field: 'nEff', message: 'the effective index must be between 1.0 and 4.0' });
-  if (p.measuredAoiDeg !== undefined && (!num(p.measuredAoiDeg) || p.measuredAoiDeg < 0 || p.measuredAoiDeg > 80)) {
-    d.push({ field: 'measuredAoiDeg', message: 'the measurement AOI must be between 0 and 80 degrees' });
+  const { nEff, tempCoeffNmPerC } = REQUEST_LIMITS;
+  const { measuredAoiDeg, preShiftNm } = MODEL_REACH;
+  if (!inRange(p.nEff, nEff)) d.push({ field: 'nEff', message: `the effective index must be between ${nEff[0].toFixed(1)} and ${nEff[1].toFixed(1)}` });
+  if (p.measuredAoiDeg !== undefined && !inRange(p.measuredAoiDeg, measuredAoiDeg)) {
+    d.push({ field: 'measuredAoiDeg', message: `the measurement AOI must be between ${measuredAoiDeg[0]} and ${measuredAoiDeg[1]} degrees` });
   }
   for (const f of ['preShiftNm', 'tempCoeffNmPerC', 'tempC', 'refTempC'] as const) {
     if (p[f] !== undefined && !num(p[f])) d.push({ field: f, message: `${f} must be a finite number` });
   }
-  if (num(p.preShiftNm) && Math.abs(p.preShiftNm!) > 200) d.push({ field: 'preShiftNm', message: 'the pre-shift must be within ±200 nm' });
-  if (num(p.tempCoeffNmPerC) && Math.abs(p.tempCoeffNmPerC!) > 1) d.push({ field: 'tempCoeffNmPerC', message: 'the temperature coefficient must be within ±1 nm/°C' });
+  if (num(p.preShiftNm) && !inRange(p.preShiftNm, preShiftNm)) d.push({ field: 'preShiftNm', message: `the pre-shift must be within ±${preShiftNm[1]} nm` });
+  if (num(p.tempCoeffNmPerC) && !inRange(p.tempCoeffNmPerC, tempCoeffNmPerC)) d.push({ field: 'tempCoeffNmPerC', message: `the temperature coefficient must be within ±${tempCoeffNmPerC[1]} nm/°C` });
   return d;
 }
 
@@ -44,11 +47,7 @@ function assertShift(p: ShiftParams): void {
   if (d.length > 0) throw new EngineInputError(`Invalid model input: ${d[0].message}.`, d);
 }
 
-/** Angle scale s(θ) = sqrt(1 − sin²θ / n²). */
-export function angleScale(thetaDeg: number, nEff: number): number {
-  const s = Math.sin(thetaDeg * DEG);
-  return Math.sqrt(1 - (s * s) / (nEff * nEff));
-}
+export { angleScale };
 
 /** Temperature part of Δ: k·(t − t_ref); zero unless both k and t are given. */
 export function temperatureShiftNm(p: ShiftParams): number {
@@ -79,7 +78,7 @@ export function coneKernel(pupil: Pupil, nEff: number): ConeKernel {
   const q = pupil.sin2Edges;
   const K = pupil.weights.length;
   const inv = 1 / (nEff * nEff);
-  const gOf = (v: number) => 1 / Math.sqrt(1 - v * inv);
+  const gOf = (v: number) => 1 / angleScaleOfSin2(v, inv);
   const g = new Float64Array(K + 1);
   for (let k = 0; k <= K; k++) g[k] = gOf(q[k]);
   const c0 = new Float64Array(K);
@@ -194,7 +193,8 @@ export interface LineThroughput {
   covered: boolean;
 }
 
-function frame(p: ShiftParams) {
+/** The measurement frame: s_m, the scale at the measurement AOI (1 at normal incidence), and the total shift Δ. */
+export function shiftFrame(p: ShiftParams): { sM: number; shift: number } {
   const sM = p.measuredAoiDeg ? angleScale(p.measuredAoiDeg, p.nEff) : 1;
   return { sM, shift: totalShiftNm(p) };
 }
@@ -210,7 +210,7 @@ export function lineThroughput(
     throw new EngineInputError('The line wavelength must be a positive number.', [{ field: 'lineNm', message: 'must be > 0' }]);
   }
   const c = prepareCurve(points);
-  const { sM, shift } = frame(params);
+  const { sM, shift } = shiftFrame(params);
   const kernel = coneKernel(pupil, params.nEff);
   const out = new Float64Array(1);
   const outside = new Uint8Array(1);
@@ -244,7 +244,7 @@ export function coneCurve(
 ): ConeCurve {
   assertShift(params);
   const c = prepareCurve(points);
-  const { sM, shift } = frame(params);
+  const { sM, shift } = shiftFrame(params);
   const kernel = coneKernel(pupil, params.nEff);
   const g = kernel.g;
   const K = pupil.weights.length;
@@ -299,7 +299,7 @@ export interface PreShiftResult {
 export function normalIncidenceFwhm(c: PreparedCurve, params: ShiftParams): number | null {
   const { leftNm, rightNm } = halfMaximumEdges(c);
   if (leftNm === null || rightNm === null || !(c.peak > 0)) return null;
-  return (rightNm - leftNm) / frame(params).sM;
+  return (rightNm - leftNm) / shiftFrame(params).sM;
 }
 
 /**
@@ -327,7 +327,7 @@ export function bestPreShift(
     lo = -fwhm;
     hi = 2 * fwhm;
   }
-  const { sM } = frame(params);
+  const { sM } = shiftFrame(params);
   const tempShift = temperatureShiftNm(params);
   const kernel = coneKernel(pupil, params.nEff);
   const A0 = sM * lambdaNm;

@@ -27,13 +27,14 @@
  * so share(X) = (1 / ab) ∫ L(r) · [τ(r) ≥ X] dr, integrated by the midpoint rule.
  */
 
+import { DEG } from './angles';
 import { lineThroughput } from './cone';
 import { prepareCurve, type PreparedCurve } from './curve';
 import { EngineInputError, type InputDetail } from './errors';
+import { inRange, REQUEST_LIMITS } from './limits';
 import { buildPupil, MAX_FIELD_ANGLE_DEG } from './pupil';
 import type { CurvePoints, Mapping, ShiftParams } from './types';
 
-const DEG = Math.PI / 180;
 
 export interface ChiefRayRow {
   imageHeightMm: number;
@@ -120,6 +121,7 @@ export function chiefRayLaw(spec: ChiefRaySpec, sensor: SensorSize, fNumber: num
 
 function validate(input: FieldMapInput): void {
   const d: InputDetail[] = [];
+  const { chiefRayDeg, fNumber } = REQUEST_LIMITS;
   const pos = (v: unknown) => typeof v === 'number' && Number.isFinite(v) && v > 0;
   if (!pos(input.sensor?.widthMm)) d.push({ field: 'sensor.widthMm', message: 'the sensor width must be a positive number of mm' });
   if (!pos(input.sensor?.heightMm)) d.push({ field: 'sensor.heightMm', message: 'the sensor height must be a positive number of mm' });
@@ -128,7 +130,7 @@ function validate(input: FieldMapInput): void {
   if ('exitPupilMm' in spec && !pos(spec.exitPupilMm)) d.push({ field: 'exitPupilMm', message: 'the exit-pupil distance must be a positive number of mm' });
   if ('cornerAngleDeg' in spec) {
     const v = spec.cornerAngleDeg as number;
-    if (typeof v !== 'number' || !(v >= 0 && v <= MAX_FIELD_ANGLE_DEG)) d.push({ field: 'cornerAngleDeg', message: `the corner chief-ray angle must be between 0 and ${MAX_FIELD_ANGLE_DEG} degrees` });
+    if (!inRange(v, chiefRayDeg)) d.push({ field: 'cornerAngleDeg', message: `the corner chief-ray angle must be between ${chiefRayDeg[0]} and ${chiefRayDeg[1]} degrees` });
   }
   if ('table' in spec) {
     const rows = spec.table as ChiefRayRow[];
@@ -139,8 +141,8 @@ function validate(input: FieldMapInput): void {
         if (!(typeof r.imageHeightMm === 'number' && r.imageHeightMm >= 0 && Number.isFinite(r.imageHeightMm))) d.push({ field: `chiefRayTable.${i}.imageHeightMm`, message: 'the image height must be a number of mm, at least 0' });
         else if (seen.has(r.imageHeightMm)) d.push({ field: `chiefRayTable.${i}.imageHeightMm`, message: `image height ${r.imageHeightMm} mm appears twice` });
         else seen.add(r.imageHeightMm);
-        if (!(typeof r.chiefRayDeg === 'number' && r.chiefRayDeg >= 0 && r.chiefRayDeg <= MAX_FIELD_ANGLE_DEG)) d.push({ field: `chiefRayTable.${i}.chiefRayDeg`, message: `the chief-ray angle must be between 0 and ${MAX_FIELD_ANGLE_DEG} degrees` });
-        if (r.fNumber !== undefined && !(typeof r.fNumber === 'number' && r.fNumber >= 0.5 && r.fNumber <= 40)) d.push({ field: `chiefRayTable.${i}.fNumber`, message: 'the f-number must be between 0.5 and 40' });
+        if (!inRange(r.chiefRayDeg, chiefRayDeg)) d.push({ field: `chiefRayTable.${i}.chiefRayDeg`, message: `the chief-ray angle must be between ${chiefRayDeg[0]} and ${chiefRayDeg[1]} degrees` });
+        if (r.fNumber !== undefined && !inRange(r.fNumber, fNumber)) d.push({ field: `chiefRayTable.${i}.fNumber`, message: `the f-number must be between ${fNumber[0]} and ${fNumber[1]}` });
       });
     }
   }

@@ -16,6 +16,7 @@
  * at the wavelength the first-order model rates best (its best pre-shift).
  */
 
+import { angleScaleOfSin2, DEG } from './angles';
 import { coneCurve } from './cone';
 import { computeMetrics } from './metrics';
 import { fitEffectiveIndex } from './neff';
@@ -83,7 +84,7 @@ export function exactConeAverage(stack: Stack, pupil: Pupil, grid: number[]): nu
   const q = pupil.sin2Edges;
   const K = pupil.weights.length;
   const thetas: number[] = [];
-  for (let k = 0; k < K; k++) thetas.push((Math.asin(Math.sqrt(0.5 * (q[k] + q[k + 1]))) * 180) / Math.PI);
+  for (let k = 0; k < K; k++) thetas.push(Math.asin(Math.sqrt(0.5 * (q[k] + q[k + 1]))) / DEG);
   return grid.map((l) => {
     let sum = 0;
     for (let k = 0; k < K; k++) if (pupil.weights[k] > 0) sum += pupil.weights[k] * unpolarisedT(stack, l, thetas[k]);
@@ -95,7 +96,7 @@ export function firstOrderGap(s: DesignSummary, optic: Optic): FirstOrderGap {
   const pupil = buildPupil(optic);
   // the cone moves the passband to the blue by at most λ·(1 − s(θmax)); look a little beyond
   const sinMax = Math.sin(pupil.thetaMaxRad);
-  const blue = s.cwlNm * (1 - Math.sqrt(1 - (sinMax * sinMax) / (s.nEff * s.nEff)));
+  const blue = s.cwlNm * (1 - angleScaleOfSin2(sinMax * sinMax, 1 / (s.nEff * s.nEff)));
   const lo = s.cwlNm - blue - 1.5 * s.fwhmNm;
   const hi = s.cwlNm + 1.5 * s.fwhmNm;
   const step = s.fwhmNm / 40;

@@ -77,6 +77,9 @@ export const LINES: readonly EmissionLine[] = Object.freeze([
  */
 export const EXTRA_LINES: readonly EmissionLine[] = Object.freeze([line('OII-3729', '[O II] 372.9', 372.88)]);
 
+/** The ids of LINES, for the schemas' enums (a submission's target lines, the catalogue's line filter). */
+export const LINE_IDS = LINES.map((l) => l.id) as [string, ...string[]];
+
 const BY_ID = new Map<string, EmissionLine>([...LINES, ...EXTRA_LINES].map((l) => [l.id, l]));
 
 export function findLine(id: string): EmissionLine | undefined {

@@ -5,6 +5,7 @@
  */
 
 import { EngineInputError, type InputDetail } from './errors';
+import { angleScale, DEG } from './angles';
 
 export interface AngleCwl {
   aoiDeg: number;
@@ -18,11 +19,8 @@ export interface NeffFit {
   points: { aoiDeg: number; cwlNm: number; fittedNm: number; residualNm: number }[];
 }
 
-const DEG = Math.PI / 180;
-
 export function predictCwl(cwl0Nm: number, nEff: number, aoiDeg: number): number {
-  const s = Math.sin(aoiDeg * DEG);
-  return cwl0Nm * Math.sqrt(1 - (s * s) / (nEff * nEff));
+  return cwl0Nm * angleScale(aoiDeg, nEff);
 }
 
 export function fitEffectiveIndex(measurements: AngleCwl[]): NeffFit {

@@ -12,7 +12,9 @@
  * built once per optic and reused for every curve, wavelength and n_eff.
  */
 
+import { DEG } from './angles';
 import { EngineInputError, type InputDetail } from './errors';
+import { MODEL_REACH, REQUEST_LIMITS } from './limits';
 import { gaussLegendre01 } from './quadrature';
 import type { AngleBin, Mapping, Optic } from './types';
 
@@ -47,8 +49,8 @@ export const DEFAULT_BINS = 128;
 export const DEFAULT_NODES_PER_PIECE = 20;
 /** Extra edges on each side of a kink, at h/2, h/4, … h/2^levels. */
 const GRADING_LEVELS = 3;
-export const MAX_FIELD_ANGLE_DEG = 45;
-const DEG = Math.PI / 180;
+/** How far a field angle reaches in the model (lib/engine/limits.ts). */
+export const MAX_FIELD_ANGLE_DEG = MODEL_REACH.fieldAngleDeg[1];
 
 export function validateOptic(optic: Optic): Required<Optic> {
   const details: InputDetail[] = [];
@@ -57,8 +59,8 @@ export function validateOptic(optic: Optic): Required<Optic> {
   const obstruction = o.obstruction ?? 0;
   const fieldAngleDeg = o.fieldAngleDeg ?? 0;
   const mapping: Mapping = o.mapping ?? 'tangent';
-  if (typeof fNumber !== 'number' || !Number.isFinite(fNumber) || fNumber < 0.5) {
-    details.push({ field: 'optic.fNumber', message: 'the f-number must be a number of at least 0.5' });
+  if (typeof fNumber !== 'number' || !Number.isFinite(fNumber) || fNumber < REQUEST_LIMITS.fNumber[0]) {
+    details.push({ field: 'optic.fNumber', message: `the f-number must be a number of at least ${REQUEST_LIMITS.fNumber[0]}` });
   }
   if (typeof obstruction !== 'number' || !Number.isFinite(obstruction) || obstruction < 0 || obstruction >= 1) {
     details.push({ field: 'optic.obstruction', message: 'the central obstruction ratio must be at least 0 and below 1' });
@@ -72,7 +74,7 @@ export function validateOptic(optic: Optic): Required<Optic> {
   if (details.length > 0) {
     throw new EngineInputError(`Invalid optic: ${details[0].message}.`, details);
   }
-  const alphaOut = mapping === 'tangent' ? Math.atan(1 / (2 * fNumber)) : Math.asin(Math.min(1, 1 / (2 * fNumber)));
+  const alphaOut = rayAngle(1 / (2 * fNumber), mapping);
   if (fieldAngleDeg * DEG + alphaOut >= 89.9 * DEG) {
     throw new EngineInputError('Invalid optic: the light cone reaches grazing incidence on the filter.', [
       { field: 'optic', message: 'field angle plus marginal-ray angle must stay below 89.9 degrees' },
@@ -106,9 +108,13 @@ interface Geometry {
   mapping: Mapping;
 }
 
+/** The ray's angle from the chief ray, radians, at k = ρ/2N: tan α = k (tangent mapping) or sin α = k (sine). */
+function rayAngle(k: number, mapping: Mapping): number {
+  return mapping === 'tangent' ? Math.atan(k) : Math.asin(Math.min(1, k));
+}
+
 function alphaOfU(g: Geometry, u: number): number {
-  const r = Math.sqrt(u);
-  return g.mapping === 'tangent' ? Math.atan(r) : Math.asin(Math.min(1, r));
+  return rayAngle(Math.sqrt(u), g.mapping);
 }
 
 function uOfAlpha(g: Geometry, a: number): number {
@@ -282,6 +288,5 @@ export function angleHistogram(pupil: Pupil, binDeg = 0.5): AngleBin[] {
 
 /** Marginal-ray angle on axis, degrees (tan θ = 1/2N for the tangent mapping). */
 export function marginalRayDeg(fNumber: number, mapping: Mapping = 'tangent'): number {
-  const k = 1 / (2 * fNumber);
-  return (mapping === 'tangent' ? Math.atan(k) : Math.asin(Math.min(1, k))) / DEG;
+  return rayAngle(1 / (2 * fNumber), mapping) / DEG;
 }

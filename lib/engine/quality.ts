@@ -23,6 +23,7 @@
  */
 
 import { coneCurve } from './cone';
+import type { Instrument } from './limits';
 import { computeMetrics } from './metrics';
 import { buildPupil } from './pupil';
 import type { CurvePoints, Metrics } from './types';
@@ -82,7 +83,7 @@ export const DEFAULT_WAVELENGTH_UNCERTAINTY_NM: Record<string, number> = {
   spectrograph: 0.05,
   monochromator: 0.2,
   other: 0.5,
-};
+} satisfies Record<Instrument, number>;
 
 const nm = (v: number, d = 2) => `${v.toFixed(d)} nm`;
 

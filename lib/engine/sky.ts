@@ -21,7 +21,7 @@
  *   gain = (τ / τ_ref) / sqrt(B / B_ref).
  */
 
-import { coneKernel, lineThroughput, type ConeKernel } from './cone';
+import { coneKernel, lineThroughput, shiftFrame, type ConeKernel } from './cone';
 import { cleanPoints, prepareCurve, type PreparedCurve } from './curve';
 import { EngineInputError, type InputDetail } from './errors';
 import type { Pupil } from './pupil';
@@ -139,7 +139,7 @@ export function meanAngleScale(kernel: ConeKernel): number {
 
 /** ∫ T_cone dλ, nm: the continuum a curve accepts through this pupil. */
 export function acceptedContinuumNm(c: PreparedCurve, pupil: Pupil, params: ShiftParams): number {
-  const sM = params.measuredAoiDeg ? Math.sqrt(1 - Math.sin((params.measuredAoiDeg * Math.PI) / 180) ** 2 / params.nEff ** 2) : 1;
+  const { sM } = shiftFrame(params);
   return (c.total / sM) * meanAngleScale(coneKernel(pupil, params.nEff));
 }
 

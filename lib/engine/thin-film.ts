@@ -22,6 +22,7 @@
  * "2H" is a half wave; "(HL)^4" repeats the group four times.
  */
 
+import { DEG } from './angles';
 import { EngineInputError } from './errors';
 
 export type Polarisation = 's' | 'p';
@@ -51,7 +52,7 @@ export interface StackResponse {
  */
 export function stackResponse(stack: Stack, lambdaNm: number, thetaDeg: number, pol: Polarisation): StackResponse {
   const n0 = stack.incidentIndex;
-  const sin0 = Math.sin((thetaDeg * Math.PI) / 180);
+  const sin0 = Math.sin(thetaDeg * DEG);
   const beta = n0 * sin0; // conserved n sin θ
   const adm = (n: number) => {
     const cos = Math.sqrt(Math.max(0, 1 - (beta / n) ** 2));

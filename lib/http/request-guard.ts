@@ -9,6 +9,8 @@
 // next-auth's own routes post forms and check their own double-submit token; a request signed
 // with a bearer token carries no ambient authority, so only its body type is checked.
 
+import { configuredSiteUrl } from './site';
+
 export type GuardInput = {
   method: string;
   path: string;
@@ -44,7 +46,7 @@ function hostOf(url: string): string | null {
 }
 
 /** Origins allowed to write: the host the request was sent to, and the configured public URL. */
-export function originAllowed(origin: string, hostHeader: string | undefined, publicUrl = process.env.NEXTAUTH_URL): boolean {
+export function originAllowed(origin: string, hostHeader: string | undefined, publicUrl = configuredSiteUrl()): boolean {
   if (origin === 'null') return false;
   const host = hostOf(origin);
   if (!host) return false;

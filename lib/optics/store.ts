@@ -1,7 +1,7 @@
-import { Op } from 'sequelize';
 import { db } from '@/db/models';
 import type { Optic } from '@/db/models/optic';
 import type { Actor } from '@/lib/auth/actor';
+import { visibleOpticsWhere } from '@/lib/auth/policy';
 import { forbidden, notFound, unprocessable } from '@/lib/http/errors';
 import { OPTIC_FIELDS, opticInputSchema, opticPatchSchema, type OpticInput, type OpticRaw } from '@/lib/schemas/optics';
 
@@ -55,20 +55,15 @@ export function opticView(o: Optic, actor: Actor | null): OpticView {
   };
 }
 
-/** Visitors see the public examples; a signed-in user also their own optics. */
-function visibleWhere(actor: Actor | null) {
-  return actor ? { [Op.or]: [{ isExample: true }, { ownerId: actor.id }] } : { isExample: true };
-}
-
 export async function listOptics(actor: Actor | null): Promise<OpticView[]> {
   const { Optic } = db();
-  const rows = await Optic.findAll({ where: visibleWhere(actor), order: [['isExample', 'ASC'], ['fNumber', 'ASC'], ['id', 'ASC']] });
+  const rows = await Optic.findAll({ where: visibleOpticsWhere(actor), order: [['isExample', 'ASC'], ['fNumber', 'ASC'], ['id', 'ASC']] });
   return rows.map((o) => opticView(o, actor));
 }
 
 export async function findVisibleOptic(actor: Actor | null, id: number): Promise<OpticView> {
   const { Optic } = db();
-  const o = await Optic.findOne({ where: { id, ...visibleWhere(actor) } });
+  const o = await Optic.findOne({ where: { id, ...visibleOpticsWhere(actor) } });
   if (!o) throw notFound(`No optic ${id} that you can read.`);
   return opticView(o, actor);
 }

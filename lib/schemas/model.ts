@@ -1,5 +1,6 @@
 import { z } from './zod';
 import { MAX_COLUMNS } from '@/lib/engine/reader/limits';
+import { REQUEST_LIMITS as L } from '@/lib/engine/limits';
 
 const finite = (what: string) => z.number({ error: `${what} must be a number` }).refine(Number.isFinite, `${what} must be finite`);
 
@@ -10,10 +11,13 @@ export const pointsSchema = z
   })
   .refine((p) => p.wavelengthNm.length === p.transmission.length, { message: 'wavelengthNm and transmission must have the same length' });
 
+const nEffMessage = `nEff must be between ${L.nEff[0].toFixed(1)} and ${L.nEff[1].toFixed(1)}`;
+export const nEffSchema = z.number({ error: 'nEff is required (typical 1.5–2.3)' }).min(L.nEff[0], nEffMessage).max(L.nEff[1], nEffMessage);
+
 export const opticSchema = z.object({
-  fNumber: z.number({ error: 'optic.fNumber must be a number' }).min(0.5, 'f-number must be at least 0.5').max(40, 'f-number must be at most 40'),
+  fNumber: z.number({ error: 'optic.fNumber must be a number' }).min(L.fNumber[0], `f-number must be at least ${L.fNumber[0]}`).max(L.fNumber[1], `f-number must be at most ${L.fNumber[1]}`),
   obstruction: z.number({ error: 'optic.obstruction must be a number' }).min(0, 'obstruction cannot be negative').lt(1, 'obstruction must be below 1').default(0),
-  fieldAngleDeg: z.number().min(0, 'field angle cannot be negative').max(30, 'field angle must be at most 30°').optional(),
+  fieldAngleDeg: z.number().min(L.fieldAngleDeg[0], 'field angle cannot be negative').max(L.fieldAngleDeg[1], `field angle must be at most ${L.fieldAngleDeg[1]}°`).optional(),
   mapping: z.enum(['tangent', 'sine']).optional(),
 });
 
@@ -39,10 +43,10 @@ export const coneRequestSchema = z
     curveId: z.number().int().positive().optional(),
     points: pointsSchema.optional(),
     optic: opticSchema,
-    nEff: z.number({ error: 'nEff is required (typical 1.5–2.3)' }).min(1, 'nEff must be between 1.0 and 4.0').max(4, 'nEff must be between 1.0 and 4.0'),
-    measuredAoiDeg: z.number().min(0).max(60).optional(),
-    preShiftNm: z.number().min(-50).max(50).optional(),
-    tempCoeffNmPerC: z.number().min(-1).max(1).optional(),
+    nEff: nEffSchema,
+    measuredAoiDeg: z.number().min(L.measuredAoiDeg[0]).max(L.measuredAoiDeg[1]).optional(),
+    preShiftNm: z.number().min(L.preShiftNm[0]).max(L.preShiftNm[1]).optional(),
+    tempCoeffNmPerC: z.number().min(L.tempCoeffNmPerC[0]).max(L.tempCoeffNmPerC[1]).optional(),
     tempC: z.number().min(-80).max(100).optional(),
     refTempC: z.number().min(-80).max(100).optional(),
     lines: z.array(z.string()).max(20).optional(),
@@ -54,7 +58,7 @@ export const coneRequestSchema = z
     lineWeights: z.record(z.string().max(40), z.number({ error: 'a line weight must be a number' }).min(0, 'a line weight cannot be negative').max(1e6, 'a line weight must be at most 1 000 000')).optional(),
     sky: skyRequestSchema.optional(),
     // error bars: the wavelength-scale uncertainty (nm) and the n_eff uncertainty; a stored curve supplies its own by default
-    wavelengthUncertaintyNm: z.number().min(0).max(10, 'wavelengthUncertaintyNm must be at most 10 nm').optional(),
+    wavelengthUncertaintyNm: z.number().min(0).max(L.wavelengthUncertaintyNm[1], `wavelengthUncertaintyNm must be at most ${L.wavelengthUncertaintyNm[1]} nm`).optional(),
     nEffUncertainty: z.number().min(0).max(1, 'nEffUncertainty must be at most 1').optional(),
   })
   .refine((b) => (b.curveId === undefined) !== (b.points === undefined), { message: 'Send either curveId or points, not both and not neither', path: ['curveId'] })
@@ -62,7 +66,7 @@ export const coneRequestSchema = z
 
 export const neffRequestSchema = z
   .object({
-    measurements: z.array(z.object({ aoiDeg: z.number().min(0).max(60), cwlNm: z.number().positive() })).min(2).max(200).optional(),
+    measurements: z.array(z.object({ aoiDeg: z.number().min(L.measuredAoiDeg[0]).max(L.measuredAoiDeg[1]), cwlNm: z.number().positive() })).min(2).max(200).optional(),
     curveIds: z.array(z.number().int().positive()).min(2).max(50).optional(),
   })
   .refine((b) => (b.measurements === undefined) !== (b.curveIds === undefined), { message: 'Send either measurements or curveIds' });

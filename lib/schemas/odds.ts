@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { findLine, LINES } from '@/lib/engine/lines';
+import { REQUEST_LIMITS as L } from '@/lib/engine/limits';
 
 const num = (what: string, min: number, max: number, unit = '') =>
   z.preprocess(
@@ -14,15 +15,15 @@ const num = (what: string, min: number, max: number, unit = '') =>
 export const oddsQuerySchema = z
   .object({
     label: z.preprocess((v) => (typeof v === 'string' ? v.trim() : v), z.string({ error: 'label is required: the filter label to look up' }).min(1, 'label is required: the filter label to look up').max(200, 'label must be at most 200 characters')),
-    fNumber: num('fNumber', 0.5, 40),
+    fNumber: num('fNumber', ...L.fNumber),
     obstruction: num('obstruction', 0, 0.9, ' (a diameter ratio)').optional(),
     minThroughput: num('minThroughput', 0, 1, ' (a fraction, 0.8 for 80 %)'),
     line: z
       .string({ error: 'line is required: a line id such as Ha, or a wavelength in nm' })
       .refine((v) => !!findLine(v) || (Number.isFinite(Number(v)) && Number(v) > 100 && Number(v) < 3000), `line must be one of ${LINES.map((l) => l.id).join(', ')} or a wavelength between 100 and 3000 nm`),
-    nEff: num('nEff', 1, 4).optional(),
-    fieldAngleDeg: num('fieldAngleDeg', 0, 30, '°').optional(),
-    preShiftNm: num('preShiftNm', -50, 50, ' nm').optional(),
+    nEff: num('nEff', ...L.nEff).optional(),
+    fieldAngleDeg: num('fieldAngleDeg', ...L.fieldAngleDeg, '°').optional(),
+    preShiftNm: num('preShiftNm', ...L.preShiftNm, ' nm').optional(),
   })
   .strict();
 

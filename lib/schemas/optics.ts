@@ -1,4 +1,6 @@
 import { z } from './zod';
+import { REQUEST_LIMITS } from '@/lib/engine/limits';
+import { DEG } from '@/lib/engine/angles';
 
 /**
  * One schema for the optics form and the /api/optics handlers. An optic is typed
@@ -9,16 +11,14 @@ import { z } from './zod';
  */
 
 export const OPTIC_LIMITS = {
-  fNumber: [0.5, 40],
+  fNumber: REQUEST_LIMITS.fNumber,
   obstruction: [0, 0.9],
-  fieldAngleDeg: [0, 30],
+  fieldAngleDeg: REQUEST_LIMITS.fieldAngleDeg,
   reducerFactor: [0.1, 5],
 } as const;
 
 /** Typed and derived values may differ by this much before a request is called inconsistent. */
 const AGREEMENT = { fNumber: 0.02, obstruction: 0.02, fieldAngleDeg: 0.5 } as const;
-
-const DEG = 180 / Math.PI;
 
 // Forms hand over '' or NaN for an empty number field, and PATCH uses null to clear one.
 const blankToUndefined = (v: unknown) => (v === '' || v === null || (typeof v === 'number' && Number.isNaN(v)) ? undefined : v);
@@ -148,7 +148,7 @@ export function deriveOptic(raw: OpticRaw): OpticDerivation {
   const hasSensor = given(raw.sensorDiagonalMm);
   const hasPupil = given(raw.exitPupilDistanceMm);
   if (hasSensor && hasPupil) {
-    const angle = Math.atan(raw.sensorDiagonalMm! / 2 / raw.exitPupilDistanceMm!) * DEG;
+    const angle = Math.atan(raw.sensorDiagonalMm! / 2 / raw.exitPupilDistanceMm!) / DEG;
     derived.fieldAngleDeg = true;
     const [, hi] = OPTIC_LIMITS.fieldAngleDeg;
     if (angle > hi) {

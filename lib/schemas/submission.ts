@@ -1,9 +1,13 @@
 import { z } from './zod';
 import { readerOptionsSchema } from './model';
 import { COATINGS } from '@/lib/engine/temperature';
+import { LINE_IDS } from '@/lib/engine/lines';
+import { INSTRUMENTS, REQUEST_LIMITS } from '@/lib/engine/limits';
 
-export const LINE_IDS = ['Ha', 'Hb', 'Hg', 'OIII', 'OIII-496', 'NII-658', 'NII-655', 'SII-671', 'SII-673', 'HeII', 'OI', 'ArIII', 'OII'] as const;
-export const INSTRUMENTS = ['spectrophotometer', 'spectrograph', 'monochromator', 'other'] as const;
+export { LINE_IDS, INSTRUMENTS };
+
+const [, MAX_AOI] = REQUEST_LIMITS.measuredAoiDeg;
+const aoi = () => z.number({ error: 'AOI must be a number' }).min(0, 'AOI cannot be negative').max(MAX_AOI, `AOI above ${MAX_AOI}° is outside what we model`);
 
 const positive = (what: string) => z.number({ error: `${what} must be a number` }).positive(`${what} must be above 0`);
 const optionalText = (max: number) => z.string().trim().max(max).optional().transform((v) => (v ? v : undefined));
@@ -15,13 +19,13 @@ export const methodSchema = z
     resolutionNm: positive('Resolution').max(50, 'Resolution above 50 nm cannot resolve a narrowband filter'),
     beam: z.enum(['collimated', 'converging'], { error: 'Say whether the beam was collimated or converging' }),
     beamFNumber: z.number().min(0.5).max(100).optional(),
-    aoiDeg: z.number({ error: 'AOI must be a number' }).min(0, 'AOI cannot be negative').max(60, 'AOI above 60° is outside what we model'),
+    aoiDeg: aoi(),
     temperatureC: z.number().min(-60).max(80).optional(),
     polarization: z.enum(['unpolarized', 's', 'p']).optional(),
     // hard (sputtered), soft (evaporated) or unknown: sets the default temperature coefficient
     coating: z.enum(COATINGS, { error: 'coating must be hard, soft or unknown' }).optional(),
     // declared standard uncertainty of the wavelength scale; without it the quality check uses the instrument's default
-    wavelengthUncertaintyNm: z.number().positive('The wavelength uncertainty must be above 0').max(10).optional(),
+    wavelengthUncertaintyNm: z.number().positive('The wavelength uncertainty must be above 0').max(REQUEST_LIMITS.wavelengthUncertaintyNm[1]).optional(),
     measuredOn: z.iso.date({ error: 'Use a date like 2026-03-14' }).optional(),
     lab: optionalText(200),
   })
@@ -43,7 +47,7 @@ export const submissionMetadataSchema = z.object({
   licence: z.enum(['CC-BY-4.0', 'CC0-1.0']).default('CC-BY-4.0'),
   method: methodSchema,
   // `reader` carries the overrides the contributor chose in the live preview, so the stored curve is the one they saw.
-  files: z.array(z.object({ name: z.string().min(1).max(255), aoiDeg: z.number({ error: 'AOI must be a number' }).min(0, 'AOI cannot be negative').max(60, 'AOI above 60° is outside what we model'), reader: readerOptionsSchema.optional(), temperatureC: z.number().min(-60).max(80).optional() })).max(20).optional(),
+  files: z.array(z.object({ name: z.string().min(1).max(255), aoiDeg: aoi(), reader: readerOptionsSchema.optional(), temperatureC: z.number().min(-60).max(80).optional() })).max(20).optional(),
 });
 
 export type SubmissionMetadata = z.output<typeof submissionMetadataSchema>;
@@ -69,7 +73,7 @@ export const previewMetadataSchema = z.object({
       resolutionNm: loose(z.number().positive()),
       beam: loose(z.enum(['collimated', 'converging'])),
       beamFNumber: loose(z.number().positive()),
-      aoiDeg: loose(z.number().min(0).max(60)),
+      aoiDeg: loose(z.number().min(0).max(MAX_AOI)),
       temperatureC: loose(z.number()),
     }),
   ),

@@ -5,13 +5,14 @@
  * `lineThroughput` the model does.
  */
 
-import { angleScale, DEFAULT_REF_TEMP_C, lineThroughput, temperatureShiftNm } from '@/lib/engine/cone';
+import { DEFAULT_REF_TEMP_C, lineThroughput, temperatureShiftNm } from '@/lib/engine/cone';
+import { angleScale } from '@/lib/engine/angles';
 import { runConeModel, CUSTOM_LINE_ID } from '@/lib/engine/cone-study';
 import { cleanPoints, prepareCleanCurve, type PreparedCurve } from '@/lib/engine/curve';
 import { halfMaximumEdges } from '@/lib/engine/metrics';
 import { dopplerShift, findLine } from '@/lib/engine/lines';
 import { fitEffectiveIndex, predictCwl } from '@/lib/engine/neff';
-import { angleHistogram, buildPupil, MAX_FIELD_ANGLE_DEG, type Pupil } from '@/lib/engine/pupil';
+import { angleHistogram, buildPupil, marginalRayDeg, MAX_FIELD_ANGLE_DEG, type Pupil } from '@/lib/engine/pupil';
 import type { AngleBin, ConeModelInput, CurvePoints, Optic, ShiftParams } from '@/lib/engine/types';
 import { explorerGrid, type ExplorerGrid, type ExplorerMarker } from './explorer';
 import type { CurveStudy, NeffSource, Series, StudyCurve, StudySettings } from './types';
@@ -130,7 +131,7 @@ export function fNumberGrid(): number[] {
 export function fieldGrid(optic: Optic & { fieldAngleDeg: number }): number[] {
   const edge = optic.fieldAngleDeg > 0 ? optic.fieldAngleDeg : DEFAULT_FIELD_SPAN_DEG;
   // The cone must stay below grazing incidence.
-  const marginal = (Math.atan(1 / (2 * optic.fNumber)) * 180) / Math.PI;
+  const marginal = marginalRayDeg(optic.fNumber);
   const top = Math.min(edge, MAX_FIELD_ANGLE_DEG, 89.8 - marginal);
   return range(0, top, FIELD_STEPS);
 }

@@ -8,6 +8,7 @@
  * exact up to the pupil's binning.
  */
 
+import { angleScaleOfSin2 } from '@/lib/engine/angles';
 import type { Pupil } from '@/lib/engine/pupil';
 
 export interface ExplorerMarker {
@@ -83,7 +84,7 @@ export const EXPLORER_HIGHLIGHT_WIDTHS_NM: readonly number[] = [2.5, 4.5, 7, 9];
  */
 export function explorerGrid(pupil: Pupil, nEff: number, lineNm: number, markers: ExplorerMarker[] = []): ExplorerGrid {
   const sinMax2 = Math.sin(pupil.thetaMaxRad) ** 2;
-  const marginalShift = lineNm * (1 / Math.sqrt(1 - sinMax2 / (nEff * nEff)) - 1);
+  const marginalShift = lineNm * (1 / angleScaleOfSin2(sinMax2, 1 / (nEff * nEff)) - 1);
   const placed = markers.filter((m) => Number.isFinite(m.widthNm) && Number.isFinite(m.shiftNm));
   const wMax = Math.max(EXPLORER_WIDTHS.to, ...placed.map((m) => Math.ceil(m.widthNm + 1)));
   const widthsNm = steps(EXPLORER_WIDTHS.from, Math.min(wMax, 40), EXPLORER_WIDTHS.step);

@@ -8,6 +8,7 @@
 
 import { z } from '@/lib/schemas/zod';
 import { computeMetrics } from '@/lib/engine/metrics';
+import { REQUEST_LIMITS } from '@/lib/engine/limits';
 import type { StudyCurve } from './types';
 
 export const PASTED_KEY = 'pasted';
@@ -17,7 +18,7 @@ export const MAX_LINK_POINTS = 20_000;
 const linkedCurveSchema = z
   .object({
     label: z.string().trim().min(1).max(200),
-    aoiDeg: z.number().min(0).max(60),
+    aoiDeg: z.number().min(REQUEST_LIMITS.measuredAoiDeg[0]).max(REQUEST_LIMITS.measuredAoiDeg[1]),
     w: z.array(z.number().positive()).min(5).max(MAX_LINK_POINTS),
     t: z.array(z.number().min(0)).min(5).max(MAX_LINK_POINTS),
   })

@@ -6,6 +6,7 @@
 
 import { rowsToCsv, type CsvCell } from '@/components/charts/csv';
 import { commentLine } from '@/lib/csv/safe';
+import { predictCwl } from '@/lib/engine/neff';
 import type { StudyResults } from './compute';
 import type { CurveStudy, StudySettings } from './types';
 import { verdictFor } from './verdict';
@@ -113,7 +114,7 @@ export function studyCsv(results: StudyResults, s: StudySettings): string {
     parts.push(
       section(`CWL against AOI: ${set.label}; fitted n_eff ${round(set.nEff, 4)}, normal-incidence CWL ${round(set.cwl0Nm, 3)} nm, RMS residual ${round(set.rmsResidualNm, 4)} nm`, [
         ['aoi_deg', 'cwl_nm', 'fitted_cwl_nm'],
-        ...set.points.map((p) => [p.aoiDeg, p.cwlNm, set.nEff && set.cwl0Nm ? set.cwl0Nm * Math.sqrt(1 - Math.sin((p.aoiDeg * Math.PI) / 180) ** 2 / set.nEff ** 2) : null]),
+        ...set.points.map((p) => [p.aoiDeg, p.cwlNm, set.nEff && set.cwl0Nm ? predictCwl(set.cwl0Nm, set.nEff, p.aoiDeg) : null]),
       ]),
     );
   }

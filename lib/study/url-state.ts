@@ -16,6 +16,7 @@
  */
 
 import { findLine, LINES } from '@/lib/engine/lines';
+import { REQUEST_LIMITS as L } from '@/lib/engine/limits';
 import type { Mapping } from '@/lib/engine/types';
 import type { StudyOptic, StudySettings, TargetLine } from './types';
 
@@ -96,13 +97,13 @@ export function readNumber(text: string): number | null {
 }
 
 export const STUDY_LIMITS = {
-  f: { min: 0.5, max: 40, label: 'f-number', unit: '' },
+  f: { min: L.fNumber[0], max: L.fNumber[1], label: 'f-number', unit: '' },
   obs: { min: 0, max: 0.9, label: 'Obstruction ratio', unit: '' },
-  field: { min: 0, max: 30, label: 'Chief-ray angle', unit: '°' },
-  n: { min: 1, max: 4, label: 'Effective index', unit: '' },
-  shift: { min: -50, max: 50, label: 'Pre-shift', unit: ' nm' },
+  field: { min: L.fieldAngleDeg[0], max: L.fieldAngleDeg[1], label: 'Chief-ray angle', unit: '°' },
+  n: { min: L.nEff[0], max: L.nEff[1], label: 'Effective index', unit: '' },
+  shift: { min: L.preShiftNm[0], max: L.preShiftNm[1], label: 'Pre-shift', unit: ' nm' },
   t: { min: -80, max: 100, label: 'Temperature', unit: ' °C' },
-  k: { min: -1, max: 1, label: 'Temperature coefficient', unit: ' nm/°C' },
+  k: { min: L.tempCoeffNmPerC[0], max: L.tempCoeffNmPerC[1], label: 'Temperature coefficient', unit: ' nm/°C' },
   tref: { min: -80, max: 100, label: 'Reference temperature', unit: ' °C' },
   v: { min: -29_979, max: 29_979, label: 'Radial velocity', unit: ' km/s' },
 } as const;

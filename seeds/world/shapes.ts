@@ -8,6 +8,7 @@
  *
  * Angle: docs/model.md §Angle shift, s(θ) = sqrt(1 − sin²θ / n_eff²), T_θ(λ) = T_0(λ / s(θ)).
  */
+import { angleScale as engineAngleScale } from '@/lib/engine/angles';
 import type { CurvePoints, PassbandBand } from './types';
 
 export interface PassbandParams {
@@ -22,7 +23,7 @@ export interface PassbandParams {
   blockingFloor?: number;
 }
 
-/** The angle scale factor s(θ) of docs/model.md §Angle shift. */
+/** The angle scale factor s(θ) of docs/model.md §Angle shift (the engine's), refusing what the demo world never measures. */
 export function angleScale(aoiDeg: number, nEff: number): number {
   if (!Number.isFinite(nEff) || nEff < 1 || nEff > 4) {
     throw new RangeError(`effective index ${nEff} is outside 1.0–4.0`);
@@ -30,8 +31,7 @@ export function angleScale(aoiDeg: number, nEff: number): number {
   if (!Number.isFinite(aoiDeg) || aoiDeg < 0 || aoiDeg >= 90) {
     throw new RangeError(`angle of incidence ${aoiDeg}° is outside [0, 90)`);
   }
-  const sin = Math.sin((aoiDeg * Math.PI) / 180);
-  return Math.sqrt(1 - (sin * sin) / (nEff * nEff));
+  return engineAngleScale(aoiDeg, nEff);
 }
 
 /**

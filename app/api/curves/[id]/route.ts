@@ -1,7 +1,8 @@
 import { NextResponse } from 'next/server';
 import { withErrors } from '@/lib/http/errors';
 import { currentActor } from '@/lib/auth/actor';
-import { getCurveDetail, parseCurveId, publicOrigin } from '@/lib/catalogue/detail';
+import { getCurveDetail, parseCurveId } from '@/lib/catalogue/detail';
+import { publicOrigin } from '@/lib/http/site';
 
 type Ctx = { params: Promise<{ id: string }> };
 

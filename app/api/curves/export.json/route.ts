@@ -1,7 +1,7 @@
 import { withErrors } from '@/lib/http/errors';
 import { parseSearchParams } from '@/lib/catalogue/search-params';
 import { exportJson } from '@/lib/catalogue/export';
-import { publicOrigin } from '@/lib/catalogue/detail';
+import { publicOrigin } from '@/lib/http/site';
 
 // Public: verified curves only, whoever asks; streamed a batch of curves at a time.
 export const GET = withErrors(async (req: Request) => {

@@ -2,7 +2,7 @@ import { NextResponse } from 'next/server';
 import { withErrors, readJson } from '@/lib/http/errors';
 import { currentActor, requireRole } from '@/lib/auth/actor';
 import { deleteOptic, findVisibleOptic, updateOptic } from '@/lib/optics/store';
-import { parseId } from '@/moderation/views';
+import { parseId } from '@/lib/http/ids';
 
 type Ctx = { params: Promise<{ id: string }> };
 

@@ -1,7 +1,8 @@
 import { NextResponse } from 'next/server';
 import { withErrors } from '@/lib/http/errors';
 import { requireRole } from '@/lib/auth/actor';
-import { getSubmission, parseId } from '@/moderation/views';
+import { getSubmission } from '@/moderation/views';
+import { parseId } from '@/lib/http/ids';
 
 export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: string }> }) => {
   const actor = await requireRole('contributor', req);

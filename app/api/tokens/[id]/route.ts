@@ -2,7 +2,7 @@ import { NextResponse } from 'next/server';
 import { withErrors } from '@/lib/http/errors';
 import { requireRole } from '@/lib/auth/actor';
 import { revokeApiToken } from '@/lib/account/api-tokens';
-import { parseId } from '@/moderation/views';
+import { parseId } from '@/lib/http/ids';
 
 export const DELETE = withErrors(async (req: Request, ctx: { params: Promise<{ id: string }> }) => {
   const actor = await requireRole('contributor', req);

@@ -1,7 +1,8 @@
 import { z } from 'zod';
 import { withErrors } from '@/lib/http/errors';
 import { currentActor } from '@/lib/auth/actor';
-import { parseCurveId, publicOrigin } from '@/lib/catalogue/detail';
+import { parseCurveId } from '@/lib/catalogue/detail';
+import { publicOrigin } from '@/lib/http/site';
 import { loadCurveRecord } from '@/lib/catalogue/formats/load';
 import { CITE_FORMATS, toBibtex, toCsl } from '@/lib/catalogue/formats/cite';
 

@@ -1,6 +1,7 @@
 import { withErrors } from '@/lib/http/errors';
 import { currentActor } from '@/lib/auth/actor';
-import { csvMetadata, getCurveDetailWithPoints, parseCurveId, publicOrigin } from '@/lib/catalogue/detail';
+import { csvMetadata, getCurveDetailWithPoints, parseCurveId } from '@/lib/catalogue/detail';
+import { publicOrigin } from '@/lib/http/site';
 import { writeCurveCsv } from '@/lib/engine/csv';
 
 type Ctx = { params: Promise<{ id: string }> };

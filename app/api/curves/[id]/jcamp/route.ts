@@ -1,6 +1,7 @@
 import { withErrors } from '@/lib/http/errors';
 import { currentActor } from '@/lib/auth/actor';
-import { parseCurveId, publicOrigin } from '@/lib/catalogue/detail';
+import { parseCurveId } from '@/lib/catalogue/detail';
+import { publicOrigin } from '@/lib/http/site';
 import { loadCurveRecord } from '@/lib/catalogue/formats/load';
 import { toJcamp } from '@/lib/catalogue/formats/jcamp';
 

@@ -1,6 +1,7 @@
 import { withErrors } from '@/lib/http/errors';
 import { currentActor } from '@/lib/auth/actor';
-import { getCurveDetailWithPoints, parseCurveId, publicOrigin } from '@/lib/catalogue/detail';
+import { getCurveDetailWithPoints, parseCurveId } from '@/lib/catalogue/detail';
+import { publicOrigin } from '@/lib/http/site';
 
 type Ctx = { params: Promise<{ id: string }> };
 

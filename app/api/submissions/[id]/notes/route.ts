@@ -3,7 +3,7 @@ import { withErrors, readJson } from '@/lib/http/errors';
 import { requireRole } from '@/lib/auth/actor';
 import { threadReplySchema } from '@/lib/schemas/submission';
 import { addNote } from '@/moderation/decisions';
-import { parseId } from '@/moderation/views';
+import { parseId } from '@/lib/http/ids';
 
 export const POST = withErrors(async (req: Request, ctx: { params: Promise<{ id: string }> }) => {
   const actor = await requireRole('contributor', req);

@@ -1,6 +1,7 @@
 import { withErrors } from '@/lib/http/errors';
 import { requireRole } from '@/lib/auth/actor';
-import { getRawFile, parseId } from '@/moderation/views';
+import { getRawFile } from '@/moderation/views';
+import { parseId } from '@/lib/http/ids';
 
 // The file exactly as uploaded, for the moderator and the contributor.
 export const GET = withErrors(async (req: Request, ctx: { params: Promise<{ id: string; fileId: string }> }) => {
