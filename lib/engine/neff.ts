@@ -18,6 +18,9 @@ export interface NeffFit {
   points: { aoiDeg: number; cwlNm: number; fittedNm: number; residualNm: number }[];
 }
 
+/** What POST /api/model/neff answers. */
+export type NeffAnswer = Pick<NeffFit, 'nEff' | 'cwl0Nm' | 'rmsResidualNm'>;
+
 const DEG = Math.PI / 180;
 
 export function predictCwl(cwl0Nm: number, nEff: number, aoiDeg: number): number {
