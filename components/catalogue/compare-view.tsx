@@ -12,30 +12,10 @@ import { DEFAULT_N_EFF } from '@/lib/catalogue/fitness-grid';
 import { api } from '@/lib/api-client';
 import { useCompareBoard, compareHref } from './compare-board';
 import type { CompareOptic } from '@/lib/catalogue/compare';
+import type { CompareCurve } from '@/lib/catalogue/compare-board';
 import { INSTRUMENT_NAMES, lineName } from './labels';
 import { SolarCaution, ModelCaution } from './solar-caution';
 import type { OpticChoice } from './types';
-
-export interface CompareCurve {
-  id: number;
-  title: string;
-  label: string;
-  maker: string | null;
-  lines: string[];
-  status: string;
-  instrument: string;
-  aoiDeg: number;
-  nEff: number | null;
-  peakT: number;
-  cwlNm: number | null;
-  fwhmNm: number | null;
-  meanInBandT: number | null;
-  effectiveBandwidthNm: number | null;
-  blockingOd: number | null;
-  contributor: string | null;
-  licence: string;
-  points: { wavelengthNm: number[]; transmission: number[] };
-}
 
 type Throughput = { id: string; throughput: number; speedEquivalentFNumber: number | null };
 

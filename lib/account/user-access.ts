@@ -1,3 +1,4 @@
+import 'server-only';
 import { db } from '@/db/models';
 import { audit } from '@/lib/audit';
 import { revokeAllSessions } from '@/lib/auth/sessions';
