@@ -1,31 +1,17 @@
 import 'server-only';
 import { db } from '@/db/models';
+import type { Curve } from '@/db/models/curve';
 import type { Actor } from '@/lib/auth/actor';
+import type { CurvePoints } from '@/lib/engine/types';
 import { readableWhere } from './points';
 import { opticChoices, type OpticChoice } from './optic-choices';
 import { curveTitle } from './detail';
 
-/** A curve on the compare board: its numbers and its points. */
-export interface CompareCurve {
-  id: number;
-  title: string;
-  label: string;
-  maker: string | null;
-  lines: string[];
-  status: string;
-  instrument: string;
-  aoiDeg: number;
-  nEff: number | null;
-  peakT: number;
-  cwlNm: number | null;
-  fwhmNm: number | null;
-  meanInBandT: number | null;
-  effectiveBandwidthNm: number | null;
-  blockingOd: number | null;
-  contributor: string | null;
-  licence: string;
-  points: { wavelengthNm: number[]; transmission: number[] };
-}
+/** A curve on the compare board: its stored numbers (the model's own fields) and its points. */
+export type CompareCurve = Pick<
+  Curve,
+  'label' | 'maker' | 'lines' | 'status' | 'instrument' | 'aoiDeg' | 'nEff' | 'peakT' | 'cwlNm' | 'fwhmNm' | 'meanInBandT' | 'effectiveBandwidthNm' | 'blockingOd' | 'licence'
+> & { id: number; title: string; contributor: string | null; points: CurvePoints };
 
 export type CompareBoardView = { curves: CompareCurve[]; missing: number[]; optics: OpticChoice[] };
 
