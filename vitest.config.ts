@@ -1,7 +1,9 @@
 import { defineConfig } from 'vitest/config';
 import path from 'node:path';
 
-const alias = { '@': path.resolve(import.meta.dirname) };
+// 'server-only' marks modules that pages and routes read data through; Next resolves it to nothing on
+// the server and refuses it in the browser bundle. Tests run them directly, so it is nothing here too.
+const alias = { '@': path.resolve(import.meta.dirname), 'server-only': path.resolve(import.meta.dirname, 'node_modules/server-only/empty.js') };
 
 export default defineConfig({
   resolve: { alias },

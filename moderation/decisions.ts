@@ -8,6 +8,10 @@ import { storeDerivedForSubmission } from '@/lib/catalogue/derived-store';
 
 export type Decision = 'verify' | 'request_changes' | 'reject';
 
+/** What the review and notes routes answer. */
+export type DecisionAnswer = Awaited<ReturnType<typeof decide>>;
+export type NoteAnswer = Awaited<ReturnType<typeof addNote>>;
+
 const NEXT_STATUS = { verify: 'verified', request_changes: 'changes_requested', reject: 'rejected' } as const;
 
 /**

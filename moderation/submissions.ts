@@ -8,6 +8,9 @@ import { hasRole, type Actor } from '@/lib/auth/actor';
 import { assess, parseFiles, type IncomingFile, type Intake } from './intake';
 import { notifyModeratorsOfSubmission } from './notify';
 
+/** What POST /api/submissions and its revise route answer. */
+export type SubmissionAnswer = Awaited<ReturnType<typeof createSubmission>> | Awaited<ReturnType<typeof reviseSubmission>>;
+
 export function parseMetadata(raw: unknown): SubmissionMetadata {
   let value = raw;
   if (typeof raw === 'string') value = parseJsonText(raw, 'The "metadata" field');

@@ -2,7 +2,7 @@
 
 import { useState } from 'react';
 import { signOut } from 'next-auth/react';
-import { postJson } from './json-form';
+import { api } from '@/lib/api-client';
 
 /** Ends every session of this account (other browsers and devices, and this one). */
 export function SignOutEverywhere({ sessions }: { sessions: number }) {
@@ -11,7 +11,7 @@ export function SignOutEverywhere({ sessions }: { sessions: number }) {
   async function onClick() {
     setBusy(true);
     setError(undefined);
-    const res = await postJson<{ sessionsEnded: number }>('/api/account/sessions', undefined, 'DELETE');
+    const res = await api.account.signOutEverywhere();
     if (!res.ok) {
       setError(res.failure.error);
       setBusy(false);

@@ -4,10 +4,11 @@ import { useState } from 'react';
 import type { ColumnDef } from '@tanstack/react-table';
 import { DataTable } from '@/components/table/data-table';
 import { Field, buttonClass, inputClass } from '@/components/forms/field';
-import { postJson } from './json-form';
+import { api, type Json } from '@/lib/api-client';
+import type { ApiTokenRow } from '@/lib/account/api-tokens';
 import { curlExample, METADATA_EXAMPLE } from './curl-example';
 
-export type TokenRow = { id: number; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; revokedAt: string | null };
+export type TokenRow = Json<ApiTokenRow>;
 
 function stamp(iso: string | null) {
   return iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)}` : 'never';
@@ -41,15 +42,15 @@ export function TokensPanel({ initial }: { initial: TokenRow[] }) {
   const origin = typeof window === 'undefined' ? '' : window.location.origin;
 
   async function refresh() {
-    const res = await fetch('/api/tokens');
-    if (res.ok) setRows(((await res.json()) as { items: TokenRow[] }).items);
+    const res = await api.tokens.list();
+    if (res.ok) setRows(res.data.items);
   }
 
   async function create(e: React.FormEvent) {
     e.preventDefault();
     setError(undefined);
     setMessage(undefined);
-    const res = await postJson<{ id: number; name: string; token: string }>('/api/tokens', { name });
+    const res = await api.tokens.create({ name });
     if (!res.ok) return setError(res.failure.details?.[0]?.message ?? res.failure.error);
     setCreated(res.data);
     setName('');
@@ -58,9 +59,8 @@ export function TokensPanel({ initial }: { initial: TokenRow[] }) {
 
   async function revoke(row: TokenRow) {
     if (!window.confirm(`Revoke "${row.name}"? Scripts using it stop working at once.`)) return;
-    const res = await fetch(`/api/tokens/${row.id}`, { method: 'DELETE' });
-    const body = await res.json().catch(() => ({}));
-    if (!res.ok) return setMessage((body as { error?: string }).error ?? `Could not revoke (${res.status}).`);
+    const res = await api.tokens.revoke(row.id);
+    if (!res.ok) return setMessage(res.failure.error);
     setMessage(`"${row.name}" is revoked.`);
     if (created?.id === row.id) setCreated(undefined);
     await refresh();

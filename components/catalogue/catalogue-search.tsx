@@ -3,6 +3,7 @@
 import { useCallback, useMemo, useState } from 'react';
 import { usePathname, useRouter, useSearchParams } from 'next/navigation';
 import useSWR from 'swr';
+import { api, getJson } from '@/lib/api-client';
 import { formatFNumber, formatRatio, formatDeg } from '@/components/charts/format';
 import { DEFAULT_DIR, SORTS, type Sort } from '@/lib/catalogue/search-params';
 import { FilterPanel } from './filter-panel';
@@ -14,15 +15,6 @@ import { SORT_NAMES, SKY_NAMES, lineName, INSTRUMENT_NAMES } from './labels';
 import type { OpticChoice, Query, SearchResponse } from './types';
 
 type Patch = Record<string, string | undefined>;
-
-class FetchError extends Error {}
-
-async function fetcher(url: string): Promise<SearchResponse> {
-  const res = await fetch(url, { headers: { accept: 'application/json' } });
-  const body = await res.json().catch(() => null);
-  if (!res.ok) throw new FetchError(body?.error ?? `The search failed (${res.status}).`);
-  return body as SearchResponse;
-}
 
 function toQuery(sp: URLSearchParams): Query {
   const q: Query = {};
@@ -76,7 +68,7 @@ export function CatalogueSearch(props: {
     setText(query.q ?? '');
   }
 
-  const { data, error, isLoading, isValidating } = useSWR<SearchResponse, Error>(`/api/curves?${key}`, fetcher, {
+  const { data, error, isLoading, isValidating } = useSWR<SearchResponse, Error>(api.curves.searchUrl(key), getJson<SearchResponse>, {
     keepPreviousData: true,
     fallbackData: key === props.initialQuery && props.initial ? props.initial : undefined,
     revalidateOnFocus: false,

@@ -9,32 +9,13 @@ import { useChartTheme } from '@/components/charts/use-chart-theme';
 import { formatDeg, formatFNumber, formatNm, formatRatio, formatTransmission, fixed } from '@/components/charts/format';
 import { LINES } from '@/lib/engine/lines';
 import { DEFAULT_N_EFF } from '@/lib/catalogue/fitness-grid';
+import { api } from '@/lib/api-client';
 import { useCompareBoard, compareHref } from './compare-board';
 import type { CompareOptic } from '@/lib/catalogue/compare';
+import type { CompareCurve } from '@/lib/catalogue/compare-board';
 import { INSTRUMENT_NAMES, lineName } from './labels';
 import { SolarCaution, ModelCaution } from './solar-caution';
 import type { OpticChoice } from './types';
-
-export interface CompareCurve {
-  id: number;
-  title: string;
-  label: string;
-  maker: string | null;
-  lines: string[];
-  status: string;
-  instrument: string;
-  aoiDeg: number;
-  nEff: number | null;
-  peakT: number;
-  cwlNm: number | null;
-  fwhmNm: number | null;
-  meanInBandT: number | null;
-  effectiveBandwidthNm: number | null;
-  blockingOd: number | null;
-  contributor: string | null;
-  licence: string;
-  points: { wavelengthNm: number[]; transmission: number[] };
-}
 
 type Throughput = { id: string; throughput: number; speedEquivalentFNumber: number | null };
 
@@ -73,18 +54,13 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
     let cancelled = false;
     Promise.all(
       props.curves.map(async (c) => {
-        const res = await fetch('/api/model/cone', {
-          method: 'POST',
-          headers: { 'content-type': 'application/json' },
-          body: JSON.stringify({
-            curveId: c.id,
-            optic: { fNumber: optic.fNumber, obstruction: optic.obstruction, fieldAngleDeg: optic.fieldAngleDeg },
-            nEff: namedNEff ?? c.nEff ?? DEFAULT_N_EFF,
-            lines: c.lines.length ? c.lines : undefined,
-          }),
+        const res = await api.model.cone({
+          curveId: c.id,
+          optic: { fNumber: optic.fNumber, obstruction: optic.obstruction, fieldAngleDeg: optic.fieldAngleDeg },
+          nEff: namedNEff ?? c.nEff ?? DEFAULT_N_EFF,
+          lines: c.lines.length ? c.lines : undefined,
         });
-        const body = await res.json().catch(() => null);
-        return [c.id, res.ok ? (body.lines as Throughput[]) : (body?.error ?? `failed (${res.status})`)] as const;
+        return [c.id, res.ok ? (res.data.lines as Throughput[]) : res.failure.error] as const;
       }),
     ).then((pairs) => {
       if (!cancelled) setResults({ key, byCurve: Object.fromEntries(pairs) });

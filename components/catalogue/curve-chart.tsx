@@ -5,13 +5,10 @@ import { SpectrumChart, type SpectrumSeries, type SpectrumLine } from '@/compone
 import { formatFNumber, formatNm, formatRatio, formatTransmission } from '@/components/charts/format';
 import { LINES } from '@/lib/engine/lines';
 import type { OpticChoice } from './types';
+import { api, type Json } from '@/lib/api-client';
+import type { ConeModelResult } from '@/lib/engine/types';
 
-interface ConeAnswer {
-  lines: { id: string; wavelengthNm: number; collimated: number; throughput: number; speedEquivalentFNumber: number | null }[];
-  bestPreShift: { nm: number; throughput: number } | null;
-  coneCurve?: { wavelengthNm: number[]; transmission: number[] };
-  warnings: string[];
-}
+type ConeAnswer = Json<ConeModelResult>;
 
 /**
  * The measured curve with its catalogued lines, and on request the cone-averaged
@@ -48,20 +45,15 @@ export function CurveChart(props: {
     }
     setBusy(true);
     try {
-      const res = await fetch('/api/model/cone', {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({
-          curveId: props.curveId,
-          optic: { fNumber: optic.fNumber, obstruction: optic.obstruction, fieldAngleDeg: optic.fieldAngleDeg },
-          nEff: n,
-          lines: props.lineIds.length ? props.lineIds : undefined,
-          includeCurve: true,
-        }),
+      const res = await api.model.cone({
+        curveId: props.curveId,
+        optic: { fNumber: optic.fNumber, obstruction: optic.obstruction, fieldAngleDeg: optic.fieldAngleDeg },
+        nEff: n,
+        lines: props.lineIds.length ? props.lineIds : undefined,
+        includeCurve: true,
       });
-      const body = await res.json();
-      if (!res.ok) throw new Error(body?.error ?? `The cone model failed (${res.status}).`);
-      setAnswer({ key, data: body as ConeAnswer });
+      if (!res.ok) throw new Error(res.failure.error);
+      setAnswer({ key, data: res.data });
     } catch (e) {
       setError(e instanceof Error ? e.message : 'The cone model failed.');
       setOverlay(false);

@@ -4,15 +4,10 @@ import useSWR from 'swr';
 import { useState } from 'react';
 import { formatNm } from '@/components/charts/format';
 import { inputClass } from '@/components/forms/field';
-import type { OddsAnswer } from '@/lib/catalogue/odds';
+import { api } from '@/lib/api-client';
 import type { OpticChoice } from './types';
 
-const fetcher = async (url: string): Promise<OddsAnswer> => {
-  const res = await fetch(url);
-  const body = await res.json();
-  if (!res.ok) throw new Error(body.error ?? `The odds could not be computed (${res.status}).`);
-  return body;
-};
+const fetcher = api.labels.odds;
 
 export function oddsUrl(q: { label: string; fNumber: number; obstruction: number; minThroughput: number; line: string; nEff?: number; fieldAngleDeg?: number }): string {
   const p = new URLSearchParams({ label: q.label, fNumber: String(q.fNumber), obstruction: String(q.obstruction), minThroughput: String(q.minThroughput), line: q.line });

@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect, useState } from 'react';
 import { useForm, type FieldPath } from 'react-hook-form';
 import { fixed, formatDeg, formatFNumber, formatRatio } from '@/components/charts/format';
-import { postJson } from '@/components/account/json-form';
+import { api } from '@/lib/api-client';
 import type { OpticView } from '@/lib/optics/store';
 import { deriveOptic, OPTIC_FIELDS, opticInputSchema, type OpticRaw } from '@/lib/schemas/optics';
 
@@ -97,7 +97,7 @@ export function OpticForm(props: { editing: OpticView | null; start: OpticFormVa
     const editing = props.editing;
     // A PATCH names every field, with null for the empty ones, so clearing a field clears it.
     const body = editing ? Object.fromEntries(OPTIC_FIELDS.map((f) => [f, raw[f] ?? null])) : raw;
-    const res = await postJson<OpticView>(editing ? `/api/optics/${editing.id}` : '/api/optics', body, editing ? 'PATCH' : 'POST');
+    const res = editing ? await api.optics.update(editing.id, body) : await api.optics.create(raw as OpticFormValues);
     if (res.ok) {
       props.onSaved(res.data);
       return;

@@ -7,19 +7,16 @@ import type { ColumnDef } from '@tanstack/react-table';
 import { DataTable } from '@/components/table/data-table';
 import { fixed, formatDeg, formatFNumber, formatRatio, MISSING } from '@/components/charts/format';
 import type { OpticView } from '@/lib/optics/store';
+import { api } from '@/lib/api-client';
 import { OpticForm, valuesOf, type OpticFormValues } from './optic-form';
 
-const fetcher = async (url: string) => {
-  const res = await fetch(url);
-  if (!res.ok) throw new Error(`The optics list answered ${res.status}.`);
-  return (await res.json()) as { items: OpticView[] };
-};
+const fetcher = api.optics.list;
 
 const mm = (v: number | null) => (v == null ? MISSING : `${fixed(v, v < 100 ? 1 : 0)} mm`);
 const action = 'rounded-card border border-rule px-2 py-0.5 text-xs hover:border-accent hover:text-accent';
 
 export function OpticsManager({ initial, signedIn }: { initial: OpticView[]; signedIn: boolean }) {
-  const { data, mutate } = useSWR('/api/optics', fetcher, { fallbackData: { items: initial }, revalidateOnFocus: false });
+  const { data, mutate } = useSWR<{ items: OpticView[] }>(api.optics.listUrl, fetcher, { fallbackData: { items: initial }, revalidateOnFocus: false });
   const items = data?.items ?? initial;
   const [editing, setEditing] = useState<OpticView | null>(null);
   const [start, setStart] = useState<OpticFormValues | null>(null);
@@ -27,7 +24,7 @@ export function OpticsManager({ initial, signedIn }: { initial: OpticView[]; sig
   const [message, setMessage] = useState<{ tone: 'ok' | 'bad'; text: string } | null>(null);
 
   async function remove(o: OpticView) {
-    const res = await fetch(`/api/optics/${o.id}`, { method: 'DELETE' });
+    const res = await api.optics.remove(o.id);
     setConfirming(null);
     if (res.ok) {
       if (editing?.id === o.id) {
@@ -38,8 +35,7 @@ export function OpticsManager({ initial, signedIn }: { initial: OpticView[]; sig
       await mutate({ items: items.filter((x) => x.id !== o.id) }, { revalidate: true });
       setMessage({ tone: 'ok', text: `Deleted “${o.name}”.` });
     } else {
-      const body = await res.json().catch(() => null);
-      setMessage({ tone: 'bad', text: body?.error ?? `Deleting answered ${res.status}.` });
+      setMessage({ tone: 'bad', text: res.failure.error });
     }
   }
 

@@ -3,7 +3,7 @@
 import { useState } from 'react';
 import { useRouter } from 'next/navigation';
 import Link from 'next/link';
-import { postJson } from '@/components/account/json-form';
+import { api } from '@/lib/api-client';
 import { buttonClass, inputClass } from '@/components/forms/field';
 import { StatusBadge } from './status-badge';
 
@@ -32,7 +32,7 @@ export function DecisionForm({ submissionId }: { submissionId: number }) {
     if (!decision) return setError('Choose a decision.');
     if (decision !== 'verify' && !note.trim()) return setNoteError('Say why in the note: the contributor reads it.');
     setBusy(true);
-    const res = await postJson<{ id: number; status: string }>(`/api/submissions/${submissionId}/review`, { decision, note });
+    const res = await api.submissions.decide(submissionId, { decision, note });
     setBusy(false);
     if (res.ok) {
       setDone(res.data.status);

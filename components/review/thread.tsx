@@ -1,7 +1,7 @@
 'use client';
 
 import { useState } from 'react';
-import { postJson } from '@/components/account/json-form';
+import { api } from '@/lib/api-client';
 import { inputClass, buttonClass } from '@/components/forms/field';
 import { StatusBadge } from './status-badge';
 
@@ -25,7 +25,7 @@ export function Thread(props: { submissionId: number; items: ThreadItem[]; canPo
     e.preventDefault();
     setBusy(true);
     setError(undefined);
-    const res = await postJson<{ id: number; kind: string; body: string; createdAt: string }>(`/api/submissions/${props.submissionId}/notes`, { body });
+    const res = await api.submissions.addNote(props.submissionId, { body });
     setBusy(false);
     if (!res.ok) return setError(res.failure.details?.[0]?.message ?? res.failure.error);
     setItems((xs) => [...xs, { ...res.data, author: 'You', authorRole: null }]);

@@ -5,8 +5,9 @@ import { formatNm } from '@/components/charts/format';
 import { findLine } from '@/lib/engine/lines';
 import { inRange, REQUEST_LIMITS } from '@/lib/engine/limits';
 import type { StudyCurve } from '@/lib/study/types';
+import type { SearchResult } from '@/lib/catalogue/search';
+import { api } from '@/lib/api-client';
 
-type Hit = { id: number; label: string; lines: string[]; cwlNm: number | null; fwhmNm: number | null; status: string; aoiDeg?: number };
 
 const lineNames = (ids: string[]) => ids.map((id) => findLine(id)?.name ?? id).join(' + ');
 
@@ -14,7 +15,7 @@ const lineNames = (ids: string[]) => ids.map((id) => findLine(id)?.name ?? id).j
 export function CatalogueSearch({ exclude, onPick, disabled }: { exclude: number[]; onPick: (id: number) => void; disabled: boolean }) {
   const id = useId();
   const [q, setQ] = useState('');
-  const [hits, setHits] = useState<Hit[] | null>(null);
+  const [hits, setHits] = useState<SearchResult['items'] | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [loading, setLoading] = useState(false);
 
@@ -26,10 +27,8 @@ export function CatalogueSearch({ exclude, onPick, disabled }: { exclude: number
     const timer = setTimeout(async () => {
       setLoading(true);
       try {
-        const res = await fetch(`/api/curves?q=${encodeURIComponent(text)}&pageSize=8`, { signal: ctrl.signal });
-        const body = await res.json().catch(() => null);
-        if (!res.ok) throw new Error(body?.error ?? `The catalogue answered ${res.status}.`);
-        setHits((body?.items ?? []) as Hit[]);
+        const body = await api.curves.search(new URLSearchParams({ q: text, pageSize: '8' }).toString(), ctrl.signal);
+        setHits(body.items);
         setError(null);
       } catch (e) {
         if ((e as Error).name !== 'AbortError') setError((e as Error).message);
@@ -98,13 +97,6 @@ export function CatalogueSearch({ exclude, onPick, disabled }: { exclude: number
   );
 }
 
-type PreviewBody = {
-  points: { wavelengthNm: number[]; transmission: number[] };
-  assumed: { wavelengthUnit: string; transmissionUnit: string; delimiter: string; headerLines: number } | null;
-  metrics: { peakT: number; cwlNm: number | null; fwhmNm: number | null };
-  warnings: string[];
-};
-
 /** Reads pasted or uploaded data through POST /api/curves/preview, which stores nothing. */
 export function PasteCurve({ onAdd, disabled, count }: { onAdd: (c: StudyCurve) => void; disabled: boolean; count: number }) {
   const id = useId();
@@ -121,16 +113,13 @@ export function PasteCurve({ onAdd, disabled, count }: { onAdd: (c: StudyCurve) 
     setError(null);
     setNote(null);
     try {
-      const form = new FormData();
-      form.append('file', file, name);
-      const res = await fetch('/api/curves/preview', { method: 'POST', body: form });
-      const body = await res.json().catch(() => null);
+      const res = await api.curves.preview(file, name);
       if (!res.ok) {
-        const details = Array.isArray(body?.details) ? body.details.slice(0, 5).map((d: { line?: number; message: string }) => (d.line ? `line ${d.line}: ${d.message}` : d.message)) : [];
-        setError({ message: body?.error ?? `The reader answered ${res.status}.`, details });
+        const details = (res.failure.details ?? []).slice(0, 5).map((d) => (d.line ? `line ${d.line}: ${d.message}` : d.message));
+        setError({ message: res.failure.error, details });
         return;
       }
-      const p = body as PreviewBody;
+      const p = res.data;
       const aoiDeg = Number(aoi.replace(',', '.'));
       const n = count + 1;
       onAdd({

@@ -4,7 +4,8 @@ import { useEffect, useMemo, useState } from 'react';
 import { fixed, formatNm } from '@/components/charts/format';
 import { XYChart, type XYSeries } from '@/components/charts/xy-chart';
 import { predictCwl } from '@/lib/engine/neff';
-import { fitNeff, type NeffFit } from './preview-api';
+import { api } from '@/lib/api-client';
+import type { NeffFit } from './preview-api';
 
 export type AngleCwl = { name: string; aoiDeg: number; cwlNm: number };
 
@@ -18,7 +19,7 @@ export function NeffPanel({ points }: { points: AngleCwl[] }) {
     if (distinct < 2) return;
     const controller = new AbortController();
     const t = setTimeout(() => {
-      fitNeff(points.map(({ aoiDeg, cwlNm }) => ({ aoiDeg, cwlNm })), controller.signal)
+      api.model.neff({ measurements: points.map(({ aoiDeg, cwlNm }) => ({ aoiDeg, cwlNm })) }, controller.signal)
         .then((r) => setOutcome(r.ok ? { key, fit: r.data } : { key, error: r.failure.error }))
         .catch(() => undefined);
     }, 300);

@@ -6,13 +6,13 @@ import { useForm, useWatch, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { submissionMetadataSchema, type SubmissionMetadata } from '@/lib/schemas/submission';
 import { buttonClass, inputClass } from '@/components/forms/field';
-import type { ApiFailure } from '@/components/account/json-form';
+import { api, NO_ANSWER, type ApiFailure } from '@/lib/api-client';
 import { clearDraft, loadDraft, saveDraft } from './draft';
 import { FileCard, type FileProblem, type PreviewState } from './file-card';
 import { MetadataFields, asNumber, type MetadataForm } from './metadata-fields';
 import { NeffPanel } from './neff-panel';
 import { PassbandChart } from './passband-chart';
-import { fileFailure, previewFile, type PreviewMetadata, type ReaderOptions } from './preview-api';
+import { fileFailure, type PreviewMetadata, type ReaderOptions } from './preview-api';
 import { UploadDashboard, UploadRefused, useSubmissionUppy, type UploadBody } from './uploader';
 
 type Added = { id: string; name: string; size: number; data: Blob };
@@ -126,7 +126,7 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
   const checkKey = JSON.stringify(watched);
   const checkMeta = useMemo<PreviewMetadata>(() => {
     const [lines, nominalCwlNm, nominalFwhmNm, resolutionNm, beam, beamFNumber, instrument, temperatureC] = JSON.parse(checkKey) as unknown[];
-    return { lines: lines as string[], nominalCwlNm: nominalCwlNm as number, nominalFwhmNm: nominalFwhmNm as number, method: { resolutionNm, beam, beamFNumber, instrument, temperatureC } };
+    return { lines: lines as string[], nominalCwlNm: nominalCwlNm as number, nominalFwhmNm: nominalFwhmNm as number, method: { resolutionNm, beam, beamFNumber, instrument, temperatureC } as PreviewMetadata['method'] };
   }, [checkKey]);
   const previewKeys = useRef<Record<string, string>>({});
   const controllers = useRef<Record<string, AbortController>>({});
@@ -146,7 +146,7 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
           const before = p[f.id];
           return { ...p, [f.id]: { state: 'loading', last: before?.state === 'ok' ? before.result : before?.state === 'loading' ? before.last : undefined } };
         });
-        previewFile(f.data, f.name, options, meta, controller.signal)
+        api.curves.preview(f.data, f.name, options, meta, controller.signal)
           .then((r) => {
             if (controller.signal.aborted) return;
             setPreviews((p) => ({
@@ -266,15 +266,9 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
       } else {
         const formData = new FormData();
         formData.append('metadata', body);
-        let res: Response;
-        try {
-          res = await fetch(endpoint, { method: 'POST', body: formData });
-        } catch {
-          return applyFailure(0, { error: 'network' });
-        }
-        const data = await res.json().catch(() => ({ error: `The server answered ${res.status}.` }));
-        if (!res.ok) return applyFailure(res.status, data as ApiFailure);
-        result = data as UploadBody;
+        const res = await api.submissions.send(endpoint, formData);
+        if (!res.ok) return applyFailure(res.status, res.failure);
+        result = res.data;
       }
       clearDraft(draftKey);
       const target = `/account/submissions/${result.id}`;

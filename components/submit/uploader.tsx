@@ -8,8 +8,11 @@ import '@uppy/core/css/style.min.css';
 import '@uppy/dashboard/css/style.min.css';
 import './uploader.css';
 import { MAX_FILE_BYTES } from '@/lib/engine/reader/limits';
+import type { Json } from '@/lib/api-client';
+import type { SubmissionAnswer } from '@/moderation/submissions';
 
-export type UploadBody = { id: number; status: string; error?: string };
+/** What the submission routes answer (the server's own type, through lib/api-client.ts). */
+export type UploadBody = Json<SubmissionAnswer>;
 export type SubmissionUppy = Uppy<Meta, UploadBody>;
 
 export const ALLOWED_TYPES = ['.csv', '.tsv', '.txt', '.dat', '.asc', '.jdx', '.dx', '.jcamp', 'text/*'];

@@ -3,6 +3,11 @@ import { audit } from '@/lib/audit';
 import { newSecret, sha256Hex } from '@/lib/auth/tokens';
 import { notFound } from '@/lib/http/errors';
 
+/** What the API answers about tokens (JSON turns the dates into ISO strings). */
+export type CreatedApiToken = Awaited<ReturnType<typeof createApiToken>>;
+export type ApiTokenRow = Awaited<ReturnType<typeof listApiTokens>>[number];
+export type RevokedApiToken = { revoked: true };
+
 export async function createApiToken(userId: string, name: string) {
   const { ApiToken, sequelize } = db();
   const secret = newSecret('bct');

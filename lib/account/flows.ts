@@ -34,6 +34,12 @@ async function consumeToken(secret: string, purpose: Purpose, transaction: Trans
   return rows[0].user_id;
 }
 
+/** The answers of the account routes. */
+export type RegisterAnswer = { email: string; confirmationSent: true };
+export type ResetRequestAnswer = { sent: true };
+export type PasswordResetAnswer = { reset: true; sessionsEnded: number; tokensRevoked: number };
+export type SignOutEverywhereAnswer = { sessionsEnded: number };
+
 export type RegistrationRequest = { name: string; email: string; passwordHash: string };
 
 /**

@@ -19,6 +19,9 @@ export interface NeffFit {
   points: { aoiDeg: number; cwlNm: number; fittedNm: number; residualNm: number }[];
 }
 
+/** What POST /api/model/neff answers. */
+export type NeffAnswer = Pick<NeffFit, 'nEff' | 'cwl0Nm' | 'rmsResidualNm'>;
+
 export function predictCwl(cwl0Nm: number, nEff: number, aoiDeg: number): number {
   return cwl0Nm * angleScale(aoiDeg, nEff);
 }

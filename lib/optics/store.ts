@@ -135,6 +135,8 @@ export async function updateOptic(actor: Actor, id: number, body: unknown): Prom
   });
 }
 
+export type DeletedOptic = { deleted: true; id: number };
+
 export async function deleteOptic(actor: Actor, id: number): Promise<void> {
   const { sequelize } = db();
   await sequelize.transaction(async (transaction) => {

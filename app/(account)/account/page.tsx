@@ -1,23 +1,15 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { requirePageRole } from '@/lib/auth/actor';
-import { db } from '@/db/models';
-import { countChecks } from '@/components/review/check-list';
-import { MySubmissionsTable, type MySubmissionRow } from '@/components/account/my-submissions-table';
+import { getAccountView } from '@/lib/account/overview';
+import { MySubmissionsTable } from '@/components/account/my-submissions-table';
 import { SignOutEverywhere } from '@/components/account/sign-out-everywhere';
-import { countLiveSessions } from '@/lib/auth/sessions';
 
 export const metadata: Metadata = { title: 'Account' };
 
 export default async function AccountPage() {
   const actor = await requirePageRole('contributor', '/account');
-  // Own submissions only, whatever the role: a moderator's queue lives on /review.
-  const mine = await db().Submission.findAll({ where: { contributorId: actor.id }, order: [['createdAt', 'DESC']] });
-  const rows: MySubmissionRow[] = mine.map((s) => ({
-    id: s.id, label: s.label, lines: s.lines, status: s.status, revision: s.revision, checkCounts: countChecks(s.checks),
-    fileCount: (s.metadata as { files?: unknown[] }).files?.length ?? 1, createdAt: s.createdAt.toISOString(), updatedAt: s.updatedAt.toISOString(),
-  }));
-  const waitingOnYou = rows.filter((r) => r.status === 'changes_requested').length;
+  const { submissions: rows, waitingOnYou, liveSessions } = await getAccountView(actor);
   return (
     <div className="space-y-8">
       <div className="flex flex-wrap items-start gap-6">
@@ -31,7 +23,7 @@ export default async function AccountPage() {
             <dt className="text-muted">Role</dt>
             <dd data-testid="account-role">{actor.role}</dd>
           </dl>
-          {actor.via === 'session' ? <SignOutEverywhere sessions={await countLiveSessions(actor.id)} /> : null}
+          {liveSessions !== null ? <SignOutEverywhere sessions={liveSessions} /> : null}
         </div>
         <nav aria-label="Account" className="flex flex-wrap gap-2 text-sm">
           <Link href="/submit" className="rounded-card bg-accent px-3 py-2 text-accent-ink">Submit a curve</Link>

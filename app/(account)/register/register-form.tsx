@@ -6,7 +6,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { registerSchema } from '@/lib/schemas/account';
 import { Field, inputClass, buttonClass } from '@/components/forms/field';
-import { postJson } from '@/components/account/json-form';
+import { api } from '@/lib/api-client';
 
 type Values = z.input<typeof registerSchema>;
 
@@ -18,7 +18,7 @@ export function RegisterForm() {
 
   async function onSubmit(values: Values) {
     setError(undefined);
-    const res = await postJson<{ email: string }>('/api/account/register', values);
+    const res = await api.account.register(values);
     if (res.ok) setDone(res.data.email);
     else setError(res.failure.error);
   }

@@ -6,14 +6,14 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { resetRequestSchema } from '@/lib/schemas/account';
 import { Field, inputClass, buttonClass } from '@/components/forms/field';
-import { postJson } from '@/components/account/json-form';
+import { api } from '@/lib/api-client';
 
 export default function ResetRequestPage() {
   const [sent, setSent] = useState(false);
   const [error, setError] = useState<string>();
   const form = useForm<z.input<typeof resetRequestSchema>>({ resolver: zodResolver(resetRequestSchema) });
   async function onSubmit(values: z.input<typeof resetRequestSchema>) {
-    const res = await postJson('/api/account/reset', values);
+    const res = await api.account.requestReset(values);
     if (res.ok) setSent(true);
     else setError(res.failure.error);
   }

@@ -1,10 +1,9 @@
 import type { Metadata } from 'next';
 import { currentActor } from '@/lib/auth/actor';
-import { listOptics } from '@/lib/optics/store';
 import { computeStudy } from '@/lib/study/compute';
 import { fallbackLineFor, parseStudyQuery, resolveSettings } from '@/lib/study/url-state';
 import { StudyWorkbench } from '@/components/study/study-workbench';
-import { loadStudyCurves } from './load';
+import { getStudyView } from '@/lib/study/load';
 
 export const metadata: Metadata = { title: 'Cone study' };
 
@@ -14,17 +13,7 @@ type Props = { searchParams: Promise<Record<string, string | string[] | undefine
 export default async function StudyPage({ searchParams }: Props) {
   const query = parseStudyQuery(await searchParams);
   const actor = await currentActor().catch(() => null);
-  const [opticViews, loaded] = await Promise.all([listOptics(actor), loadStudyCurves(actor, query.curveIds)]);
-  const optics = opticViews.map((o) => ({
-    id: o.id,
-    name: o.name,
-    description: o.description,
-    fNumber: o.fNumber,
-    obstruction: o.obstruction,
-    fieldAngleDeg: o.fieldAngleDeg,
-    isExample: o.isExample,
-    mine: o.mine,
-  }));
+  const { optics, ...loaded } = await getStudyView(actor, query.curveIds);
   // The first paint already carries the numbers: the same computation the browser repeats on every change.
   const { settings } = resolveSettings(query, optics, fallbackLineFor(loaded.curves));
   const results = computeStudy(loaded.curves, settings);

@@ -7,7 +7,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { resetConfirmSchema } from '@/lib/schemas/account';
 import { Field, inputClass, buttonClass } from '@/components/forms/field';
-import { postJson } from '@/components/account/json-form';
+import { api } from '@/lib/api-client';
 
 type Values = z.input<typeof resetConfirmSchema>;
 
@@ -17,7 +17,7 @@ export default function ResetConfirmPage({ params }: { params: Promise<{ token: 
   const [error, setError] = useState<string>();
   const form = useForm<Values>({ resolver: zodResolver(resetConfirmSchema), defaultValues: { token } });
   async function onSubmit(values: Values) {
-    const res = await postJson('/api/account/reset/confirm', values);
+    const res = await api.account.confirmReset(values);
     if (res.ok) setDone(true);
     else setError(res.failure.error);
   }

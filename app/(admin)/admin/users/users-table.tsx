@@ -3,7 +3,7 @@
 import { useState } from 'react';
 import type { ColumnDef } from '@tanstack/react-table';
 import { DataTable } from '@/components/table/data-table';
-import { postJson } from '@/components/account/json-form';
+import { api, type UserAccessChange } from '@/lib/api-client';
 
 export type UserRow = { id: string; name: string; email: string; role: string; disabled: boolean; confirmed: boolean; createdAt: string };
 
@@ -11,8 +11,8 @@ export function UsersTable({ rows: initial, selfId }: { rows: UserRow[]; selfId:
   const [rows, setRows] = useState(initial);
   const [message, setMessage] = useState<string>();
 
-  async function change(id: string, body: { role?: string; disabled?: boolean }) {
-    const res = await postJson<{ role: string; disabled: boolean }>(`/api/admin/users/${id}`, body, 'PATCH');
+  async function change(id: string, body: UserAccessChange) {
+    const res = await api.admin.changeUser(id, body);
     if (!res.ok) return setMessage(res.failure.error);
     setRows((rs) => rs.map((r) => (r.id === id ? { ...r, role: res.data.role, disabled: res.data.disabled } : r)));
     setMessage('Saved.');
@@ -25,7 +25,7 @@ export function UsersTable({ rows: initial, selfId }: { rows: UserRow[]; selfId:
       accessorKey: 'role', header: 'Role',
       cell: ({ row }) => (
         <select aria-label={`Role of ${row.original.email}`} value={row.original.role} disabled={row.original.id === selfId}
-          onChange={(e) => change(row.original.id, { role: e.target.value })} className="rounded-card border border-rule bg-panel px-2 py-1">
+          onChange={(e) => change(row.original.id, { role: e.target.value as UserAccessChange['role'] })} className="rounded-card border border-rule bg-panel px-2 py-1">
           <option value="contributor">contributor</option>
           <option value="moderator">moderator</option>
           <option value="admin">admin</option>

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { requirePageRole } from '@/lib/auth/actor';
-import { loadSubmissionView } from '@/components/review/load-submission';
+import { getSubmissionView } from '@/moderation/submission-view';
 import { StatusBadge } from '@/components/review/status-badge';
 import { CheckList, CheckSummary, countChecks } from '@/components/review/check-list';
 import { CurvesTable, DeclaredFacts, FilesTable } from '@/components/review/submission-facts';
@@ -17,7 +17,7 @@ export const metadata: Metadata = { title: 'Review' };
 export default async function ReviewPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const actor = await requirePageRole('moderator', `/review/${id}`);
-  const s = await loadSubmissionView(actor, id);
+  const s = await getSubmissionView(actor, id);
   const own = s.contributor.id === actor.id;
   return (
     <div className="space-y-8">

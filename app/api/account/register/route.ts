@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
 import { withErrors, readJson, HttpError } from '@/lib/http/errors';
 import { registerSchema } from '@/lib/schemas/account';
-import { register } from '@/lib/account/flows';
+import { register, type RegisterAnswer } from '@/lib/account/flows';
 import { clientAddress, overLimit } from '@/lib/rate-limit';
 
 export const POST = withErrors(async (req: Request) => {
@@ -11,5 +11,5 @@ export const POST = withErrors(async (req: Request) => {
   const input = registerSchema.parse(await readJson(req));
   // The same answer whether or not the address already has an account (lib/account/flows.ts).
   const { email } = await register(input);
-  return NextResponse.json({ email, confirmationSent: true }, { status: 202 });
+  return NextResponse.json<RegisterAnswer>({ email, confirmationSent: true }, { status: 202 });
 });

@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
 import { withErrors, readJson, HttpError } from '@/lib/http/errors';
 import { resetRequestSchema } from '@/lib/schemas/account';
-import { requestPasswordReset } from '@/lib/account/flows';
+import { requestPasswordReset, type ResetRequestAnswer } from '@/lib/account/flows';
 import { clientAddress, overLimit } from '@/lib/rate-limit';
 
 export const POST = withErrors(async (req: Request) => {
@@ -10,5 +10,5 @@ export const POST = withErrors(async (req: Request) => {
   }
   const { email } = resetRequestSchema.parse(await readJson(req));
   await requestPasswordReset(email);
-  return NextResponse.json({ sent: true }, { status: 202 });
+  return NextResponse.json<ResetRequestAnswer>({ sent: true }, { status: 202 });
 });

@@ -3,8 +3,8 @@ import { withErrors, readJson, HttpError, badRequest } from '@/lib/http/errors';
 import { POINTS_BODY_MAX, parseJsonText, readFormCapped } from '@/lib/http/body';
 import { readCurveText, MAX_FILE_BYTES } from '@/lib/engine/reader';
 import { cleanPoints } from '@/lib/engine/curve';
-import { computeMetrics } from '@/lib/engine/metrics';
-import { runChecks } from '@/lib/engine/checks';
+import { previewOf } from '@/lib/engine/preview';
+import type { ReadAssumptions } from '@/lib/engine/reader/types';
 import { pointsSchema, readerOptionsSchema } from '@/lib/schemas/model';
 import { previewMetadataSchema } from '@/lib/schemas/submission';
 import { clientAddress, overLimit } from '@/lib/rate-limit';
@@ -23,7 +23,7 @@ export const POST = withErrors(async (req: Request) => {
     throw new HttpError(429, 'Too many previews from this address; wait a minute.');
   }
   const type = req.headers.get('content-type') ?? '';
-  let read: { points: { wavelengthNm: number[]; transmission: number[] }; assumed?: unknown; warnings: string[] };
+  let read: { points: { wavelengthNm: number[]; transmission: number[] }; assumed?: ReadAssumptions; warnings: string[] };
   let metadata: unknown;
   if (type.startsWith('multipart/form-data')) {
     const form = await readFormCapped(req, MAX_FILE_BYTES + 256 * 1024, 'The file');
@@ -41,16 +41,7 @@ export const POST = withErrors(async (req: Request) => {
     const cleaned = cleanPoints(points);
     read = { points: cleaned.points, warnings: cleaned.warnings };
   }
-  const metrics = computeMetrics(read.points);
   // Lenient: a half-filled form still gets the checks its filled fields allow.
   const meta = metadata === undefined ? undefined : previewMetadataSchema.safeParse(metadata);
-  const checks = runChecks({ metrics, metadata: meta?.success ? meta.data : undefined });
-  const { warnings: metricWarnings, sampleCount, medianStepNm, rangeNm, ...rest } = metrics;
-  return NextResponse.json({
-    points: read.points,
-    assumed: read.assumed ?? null,
-    metrics: { ...rest, rangeNm, sampleCount, medianStepNm },
-    checks,
-    warnings: [...read.warnings, ...metricWarnings],
-  });
+  return NextResponse.json(previewOf(read, meta?.success ? meta.data : undefined));
 });

@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
 import { withErrors, readJson, unprocessable } from '@/lib/http/errors';
 import { neffRequestSchema } from '@/lib/schemas/model';
-import { fitEffectiveIndex } from '@/lib/engine/neff';
+import { fitEffectiveIndex, type NeffAnswer } from '@/lib/engine/neff';
 import { currentActor } from '@/lib/auth/actor';
 import { loadReadableCurve } from '@/lib/catalogue/points';
 
@@ -16,5 +16,5 @@ export const POST = withErrors(async (req: Request) => {
     measurements = curves.map((c) => ({ aoiDeg: c.aoiDeg, cwlNm: c.cwlNm as number }));
   }
   const fit = fitEffectiveIndex(measurements!);
-  return NextResponse.json({ nEff: fit.nEff, cwl0Nm: fit.cwl0Nm, rmsResidualNm: fit.rmsResidualNm });
+  return NextResponse.json<NeffAnswer>({ nEff: fit.nEff, cwl0Nm: fit.cwl0Nm, rmsResidualNm: fit.rmsResidualNm });
 });

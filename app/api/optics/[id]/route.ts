@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
 import { withErrors, readJson } from '@/lib/http/errors';
 import { currentActor, requireRole } from '@/lib/auth/actor';
-import { deleteOptic, findVisibleOptic, updateOptic } from '@/lib/optics/store';
+import { deleteOptic, findVisibleOptic, updateOptic, type DeletedOptic } from '@/lib/optics/store';
 import { parseId } from '@/lib/http/ids';
 
 type Ctx = { params: Promise<{ id: string }> };
@@ -22,5 +22,5 @@ export const DELETE = withErrors(async (req: Request, ctx: Ctx) => {
   const actor = await requireRole('contributor', req);
   const id = parseId((await ctx.params).id);
   await deleteOptic(actor, id);
-  return NextResponse.json({ deleted: true, id });
+  return NextResponse.json<DeletedOptic>({ deleted: true, id });
 });

@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { redirect } from 'next/navigation';
 import { requirePageRole } from '@/lib/auth/actor';
-import { loadSubmissionView } from '@/components/review/load-submission';
+import { getSubmissionView } from '@/moderation/submission-view';
 import { StatusBadge } from '@/components/review/status-badge';
 import { CheckList, CheckSummary, countChecks } from '@/components/review/check-list';
 import { CurvesTable, DeclaredFacts, FilesTable } from '@/components/review/submission-facts';
@@ -25,7 +25,7 @@ export default async function MySubmissionPage({ params, searchParams }: { param
   const { id } = await params;
   const sp = await searchParams;
   const actor = await requirePageRole('contributor', `/account/submissions/${id}`);
-  const s = await loadSubmissionView(actor, id);
+  const s = await getSubmissionView(actor, id);
   // A moderator opening someone else's submission belongs on the review page.
   if (s.contributor.id !== actor.id) redirect(`/review/${s.id}`);
   const lastRequest = [...s.thread].reverse().find((t) => t.kind === 'request_changes');

@@ -1,12 +1,13 @@
+import 'server-only';
 import { notFound } from 'next/navigation';
 import { db } from '@/db/models';
 import type { Actor } from '@/lib/auth/actor';
 import { HttpError } from '@/lib/http/errors';
-import { getSubmission } from '@/moderation/views';
+import { getSubmission } from './views';
 import { parseId } from '@/lib/http/ids';
-import type { CheckItem } from './check-list';
-import type { CurveRow, FileRow, StoredMetadata } from './submission-facts';
-import type { ThreadItem } from './thread';
+import type { CheckItem } from '@/components/review/check-list';
+import type { CurveRow, FileRow, StoredMetadata } from '@/components/review/submission-facts';
+import type { ThreadItem } from '@/components/review/thread';
 
 export type SubmissionView = {
   id: number; status: string; revision: number; label: string; lines: string[]; metadata: StoredMetadata; checks: CheckItem[]; checkLevel: string;
@@ -18,10 +19,11 @@ export type SubmissionView = {
 const iso = (d: Date | string | null | undefined) => (d == null ? null : new Date(d).toISOString());
 
 /**
- * The same view the API gives (moderation/views), plus the points of the current
- * revision for the chart; a missing or foreign submission becomes the 404 page.
+ * The submission pages' view (the contributor's and the moderator's): the same view
+ * the API gives (./views), plus the points of the current revision for the chart;
+ * a missing or foreign submission becomes the 404 page.
  */
-export async function loadSubmissionView(actor: Actor, rawId: string): Promise<SubmissionView> {
+export async function getSubmissionView(actor: Actor, rawId: string): Promise<SubmissionView> {
   let s: Awaited<ReturnType<typeof getSubmission>>;
   try {
     s = await getSubmission(actor, parseId(rawId));
