@@ -14,6 +14,7 @@ import type { CompareOptic } from '@/lib/catalogue/compare';
 import { INSTRUMENT_NAMES, lineName } from './labels';
 import { SolarCaution, ModelCaution } from './solar-caution';
 import type { OpticChoice } from './types';
+import { formatCurveId } from '@/lib/labels';
 
 export interface CompareCurve {
   id: number;
@@ -95,7 +96,7 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
   }, [key]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const series: SpectrumSeries[] = useMemo(
-    () => props.curves.map((c, i) => ({ name: `${c.id}: ${c.title}`, wavelengthNm: c.points.wavelengthNm, transmission: c.points.transmission, kind: 'measured', colorIndex: i })),
+    () => props.curves.map((c, i) => ({ name: `${formatCurveId(c.id)}: ${c.title}`, wavelengthNm: c.points.wavelengthNm, transmission: c.points.transmission, kind: 'measured', colorIndex: i })),
     [props.curves],
   );
   const lines: SpectrumLine[] = useMemo(() => {
@@ -173,7 +174,7 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
                         {c.title}
                       </Link>
                     </span>
-                    <button type="button" onClick={() => remove(c.id)} className="mt-1 text-xs font-normal text-muted underline-offset-4 hover:underline" aria-label={`Remove curve ${c.id} from the board`}>
+                    <button type="button" onClick={() => remove(c.id)} className="mt-1 text-xs font-normal text-muted underline-offset-4 hover:underline" aria-label={`Remove curve ${formatCurveId(c.id)} from the board`}>
                       remove
                     </button>
                   </th>

@@ -6,6 +6,7 @@ import { countChecks } from '@/components/review/check-list';
 import { MySubmissionsTable, type MySubmissionRow } from '@/components/account/my-submissions-table';
 import { SignOutEverywhere } from '@/components/account/sign-out-everywhere';
 import { countLiveSessions } from '@/lib/auth/sessions';
+import { ROLE_LABELS, labelOf } from '@/lib/labels';
 
 export const metadata: Metadata = { title: 'Account' };
 
@@ -29,7 +30,7 @@ export default async function AccountPage() {
             <dt className="text-muted">E-mail</dt>
             <dd>{actor.email}</dd>
             <dt className="text-muted">Role</dt>
-            <dd data-testid="account-role">{actor.role}</dd>
+            <dd data-testid="account-role">{labelOf(ROLE_LABELS, actor.role)}</dd>
           </dl>
           {actor.via === 'session' ? <SignOutEverywhere sessions={await countLiveSessions(actor.id)} /> : null}
         </div>
