@@ -142,6 +142,12 @@ export const ROLE_LABELS: Labels<'contributor' | 'moderator' | 'admin'> = {
   admin: 'Administrator',
 };
 
+/** An account's state on the admin users page (users.disabled_at set or not). */
+export const ACCESS_LABELS: Labels<'active' | 'disabled'> = {
+  active: 'Active',
+  disabled: 'Disabled',
+};
+
 export const CHECK_LEVEL_LABELS: Labels<'info' | 'warn' | 'error'> = {
   info: 'Note',
   warn: 'Warning',
@@ -200,6 +206,7 @@ export const LABELS_BY_FIELD: Record<string, Partial<Record<string, string>>> = 
   kind: REVIEW_KIND_LABELS,
   status: STATUS_LABELS,
   role: ROLE_LABELS,
+  access: ACCESS_LABELS,
   level: CHECK_LEVEL_LABELS,
   checkLevel: CHECK_LEVEL_LABELS,
   lines: LINE_LABELS,
