@@ -1,9 +1,12 @@
 import 'server-only';
 import { Op, type WhereOptions } from 'sequelize';
 import { db } from '@/db/models';
-import { forbidden } from '@/lib/http/errors';
+import { conflict, forbidden, notFound } from '@/lib/http/errors';
+import { audit } from '@/lib/audit';
+import { revokeAllSessions } from '@/lib/auth/sessions';
 import { hasRole, type Actor } from '@/lib/auth/actor';
 import type { UsersQuery } from '@/lib/schemas/admin';
+import type { RoleChange } from '@/lib/schemas/account';
 import type { Role } from '@/db/models/user';
 import { likePattern } from './audit';
 
@@ -40,4 +43,33 @@ export async function getUsers(viewer: Pick<Actor, 'id' | 'role'>, query: UsersQ
     pageSize: USERS_PAGE_SIZE,
     selfId: viewer.id,
   };
+}
+
+/** A new role or a changed access, audited, in one transaction; never on the admin's own account. */
+export async function changeUser(viewer: Pick<Actor, 'id' | 'role'>, id: string, change: RoleChange) {
+  if (!hasRole(viewer, 'admin')) throw forbidden('Only admins change roles and access.');
+  if (id === viewer.id && (change.disabled || (change.role && change.role !== 'admin'))) {
+    throw conflict('You cannot demote or disable your own account; ask another admin.');
+  }
+  const { User, sequelize } = db();
+  const user = await sequelize.transaction(async (transaction) => {
+    const user = await User.findByPk(id, { transaction, lock: true });
+    if (!user) throw notFound('No such user.');
+    const before = { role: user.role, disabled: !!user.disabledAt };
+    await user.update(
+      {
+        ...(change.role ? { role: change.role } : {}),
+        ...(change.disabled === undefined ? {} : { disabledAt: change.disabled ? new Date() : null }),
+      },
+      { transaction },
+    );
+    const roleChanged = !!change.role && change.role !== before.role;
+    // A new role or a disabled account starts from a fresh sign-in on every device.
+    const sessionsEnded = roleChanged || (!!user.disabledAt && !before.disabled) ? await revokeAllSessions(id, roleChanged ? 'role changed' : 'account disabled', transaction) : 0;
+    await audit(viewer.id, roleChanged ? 'user.role_changed' : 'user.access_changed', { type: 'user', id }, {
+      email: user.email, before, after: { role: user.role, disabled: !!user.disabledAt }, sessionsEnded,
+    }, transaction);
+    return user;
+  });
+  return { id: user.id, email: user.email, role: user.role, disabled: !!user.disabledAt };
 }

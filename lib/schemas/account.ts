@@ -17,3 +17,4 @@ export const resetConfirmSchema = z.object({ token: z.string().min(10).max(200),
 export const roleChangeSchema = z
   .object({ role: z.enum(['contributor', 'moderator', 'admin']).optional(), disabled: z.boolean().optional() })
   .refine((v) => v.role !== undefined || v.disabled !== undefined, { message: 'Send a role or a disabled flag' });
+export type RoleChange = z.output<typeof roleChangeSchema>;
