@@ -13,7 +13,7 @@ import type { coneRequestSchema, neffRequestSchema, readerOptionsSchema } from '
 import type { opticInputSchema, opticPatchSchema } from '@/lib/schemas/optics';
 import type { previewMetadataSchema, reviewDecisionSchema, threadReplySchema } from '@/lib/schemas/submission';
 import type { PasswordResetAnswer, RegisterAnswer, ResetRequestAnswer, SignOutEverywhereAnswer } from '@/lib/account/flows';
-import type { UserAccessAnswer } from '@/lib/account/user-access';
+import type { UserAccessAnswer } from '@/lib/admin/users';
 import type { ApiTokenRow, CreatedApiToken, RevokedApiToken } from '@/lib/account/api-tokens';
 import type { SearchResult } from '@/lib/catalogue/search';
 import type { OddsAnswer } from '@/lib/catalogue/odds';

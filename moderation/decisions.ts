@@ -41,7 +41,10 @@ export async function decide(moderator: Pick<Actor, 'id' | 'role'>, submissionId
     await audit(moderator.id, `submission.${decision}`, { type: 'submission', id: submissionId }, { note, revision: submission.revision }, transaction);
     const contributor = await User.findByPk(submission.contributorId, { transaction, attributes: ['email'] });
     // The mail is queued in the same transaction: the decision and its mail exist together or not at all.
-    if (contributor?.email && options.notify !== false) await notifyContributorOfDecision(submissionId, contributor.email, submission.label, decision, note, transaction);
+    const published = decision === 'verify'
+      ? (await Curve.findAll({ where: { submissionId, revision: submission.revision, status: 'verified' }, attributes: ['id', 'aoiDeg'], order: [['aoiDeg', 'ASC'], ['id', 'ASC']], transaction })).map((c) => ({ id: c.id, aoiDeg: c.aoiDeg }))
+      : [];
+    if (contributor?.email && options.notify !== false) await notifyContributorOfDecision(submissionId, contributor.email, submission.label, decision, note, transaction, published);
     return { status };
   });
   return { id: submissionId, status: outcome.status };

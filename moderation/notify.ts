@@ -2,12 +2,7 @@ import type { Transaction } from 'sequelize';
 import { db } from '@/db/models';
 import { enqueueMail } from '@/lib/mail/queue';
 import { siteUrl } from '@/lib/http/site';
-
-const DECISION_WORDS: Record<string, string> = {
-  verify: 'verified and published',
-  request_changes: 'returned with a request for changes',
-  reject: 'rejected',
-};
+import { DECISION_PAST, formatCurveId, formatSubmissionId } from '@/lib/labels';
 
 // Every function here queues its mail inside the caller's transaction (lib/mail/queue.ts):
 // a decision, a note or a submission commits together with its mail, and is never held
@@ -20,24 +15,39 @@ export async function notifyModeratorsOfSubmission(submissionId: number, label: 
   await enqueueMail({
     kind: 'review_queue',
     to: moderators.map((m) => m.email),
-    subject: `Review queue: ${label}${revision > 1 ? ` (revision ${revision})` : ''}`,
+    subject: `Review queue: ${formatSubmissionId(submissionId)} ${label}${revision > 1 ? ` (revision ${revision})` : ''}`,
     text: `A submission is waiting for review: ${label}.\n${waiting} submission(s) are now in the queue.\n\n${siteUrl()}/review/${submissionId}`,
   }, transaction);
 }
 
-export async function notifyContributorOfDecision(submissionId: number, email: string, label: string, decision: string, note: string, transaction: Transaction) {
+/**
+ * A verified submission's mail leads to the public page of what was published (one link per
+ * curve of a multi-angle set); the submission page, where the thread goes on, comes after.
+ */
+export async function notifyContributorOfDecision(
+  submissionId: number, email: string, label: string, decision: string, note: string, transaction: Transaction,
+  published: { id: number; aoiDeg: number }[] = [],
+) {
+  const done = DECISION_PAST[decision] ?? decision;
+  const ref = formatSubmissionId(submissionId);
+  const curves = published.length === 1
+    ? `It is public at ${siteUrl()}/curves/${published[0].id}\n\n`
+    : published.length > 1
+      ? `Its curves are public:\n${published.map((c) => `  ${formatCurveId(c.id)} at ${c.aoiDeg}° AOI: ${siteUrl()}/curves/${c.id}`).join('\n')}\n\n`
+      : '';
   await enqueueMail({
     kind: 'decision',
     to: email,
-    subject: `Your submission "${label}" was ${DECISION_WORDS[decision] ?? decision}`,
+    subject: `Your submission ${ref} "${label}" was ${done}`,
     text:
-      `A moderator ${DECISION_WORDS[decision] ?? decision} your submission "${label}".\n\n` +
+      `A moderator ${done} your submission ${ref} "${label}".\n\n` +
+      curves +
       (note ? `Their note:\n${note}\n\n` : '') +
-      `See it and answer at ${siteUrl()}/account/submissions/${submissionId}`,
+      `The submission and its thread: ${siteUrl()}/account/submissions/${submissionId}`,
   }, transaction);
 }
 
 export async function notifyOfNote(submissionId: number, to: string[], label: string, author: string, body: string, forModerators: boolean, transaction: Transaction) {
   const link = forModerators ? `${siteUrl()}/review/${submissionId}` : `${siteUrl()}/account/submissions/${submissionId}`;
-  await enqueueMail({ kind: 'note', to, subject: `New note on "${label}"`, text: `${author} wrote:\n\n${body}\n\n${link}` }, transaction);
+  await enqueueMail({ kind: 'note', to, subject: `New note on ${formatSubmissionId(submissionId)} "${label}"`, text: `${author} wrote:\n\n${body}\n\n${link}` }, transaction);
 }

@@ -16,6 +16,7 @@ import type { CompareCurve } from '@/lib/catalogue/compare-board';
 import { INSTRUMENT_NAMES, lineName } from './labels';
 import { SolarCaution, ModelCaution } from './solar-caution';
 import type { OpticChoice } from './types';
+import { formatCurveId } from '@/lib/labels';
 
 type Throughput = { id: string; throughput: number; speedEquivalentFNumber: number | null };
 
@@ -71,7 +72,7 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
   }, [key]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const series: SpectrumSeries[] = useMemo(
-    () => props.curves.map((c, i) => ({ name: `${c.id}: ${c.title}`, wavelengthNm: c.points.wavelengthNm, transmission: c.points.transmission, kind: 'measured', colorIndex: i })),
+    () => props.curves.map((c, i) => ({ name: `${formatCurveId(c.id)}: ${c.title}`, wavelengthNm: c.points.wavelengthNm, transmission: c.points.transmission, kind: 'measured', colorIndex: i })),
     [props.curves],
   );
   const lines: SpectrumLine[] = useMemo(() => {
@@ -149,7 +150,7 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
                         {c.title}
                       </Link>
                     </span>
-                    <button type="button" onClick={() => remove(c.id)} className="mt-1 text-xs font-normal text-muted underline-offset-4 hover:underline" aria-label={`Remove curve ${c.id} from the board`}>
+                    <button type="button" onClick={() => remove(c.id)} className="mt-1 text-xs font-normal text-muted underline-offset-4 hover:underline" aria-label={`Remove curve ${formatCurveId(c.id)} from the board`}>
                       remove
                     </button>
                   </th>

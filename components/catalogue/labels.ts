@@ -1,11 +1,7 @@
 import { findLine } from '@/lib/engine/lines';
 
-export const INSTRUMENT_NAMES: Record<string, string> = {
-  spectrophotometer: 'Spectrophotometer',
-  spectrograph: 'Grating spectrograph',
-  monochromator: 'Monochromator scan',
-  other: 'Other',
-};
+// The instrument words live with every other stored value's label (lib/labels.ts).
+export { INSTRUMENT_LABELS as INSTRUMENT_NAMES } from '@/lib/labels';
 
 export function lineName(id: string): string {
   return findLine(id)?.name ?? id;

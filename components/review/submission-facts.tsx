@@ -1,6 +1,8 @@
+import Link from 'next/link';
 import { fixed, formatNm, formatTransmission, formatFNumber, MISSING } from '@/components/charts/format';
 import { findLine } from '@/lib/engine/lines';
 import { StatusBadge } from './status-badge';
+import { BEAM_LABELS, INSTRUMENT_LABELS, LICENCE_LABELS, POLARIZATION_LABELS, formatCurveId, labelOf } from '@/lib/labels';
 
 export type FileRow = { id: number; name: string; sizeBytes: number; sha256: string; aoiDeg: number; revision: number; createdAt: string };
 export type CurveRow = {
@@ -34,15 +36,15 @@ export function DeclaredFacts({ metadata }: { metadata: StoredMetadata }) {
     ['Declared pre-shift', metadata.declaredPreShiftNm === undefined ? 'none stated' : formatNm(metadata.declaredPreShiftNm)],
     ['Serial or lot', metadata.serial ?? MISSING],
     ['Size', metadata.sizeMm ?? MISSING],
-    ['Licence', metadata.licence === 'CC0-1.0' ? 'CC0 1.0' : 'CC BY 4.0'],
+    ['Licence', labelOf(LICENCE_LABELS, metadata.licence ?? 'CC-BY-4.0')],
   ];
   const method: [string, string][] = [
-    ['Instrument', m.instrument ?? MISSING],
+    ['Instrument', labelOf(INSTRUMENT_LABELS, m.instrument, MISSING)],
     ['Resolution or step', formatNm(m.resolutionNm, 3)],
-    ['Beam', m.beam === 'converging' ? `converging, ${formatFNumber(m.beamFNumber)}` : (m.beam ?? MISSING)],
+    ['Beam', m.beam === 'converging' ? `${BEAM_LABELS.converging}, ${formatFNumber(m.beamFNumber)}` : labelOf(BEAM_LABELS, m.beam, MISSING)],
     ['AOI', metadata.files && metadata.files.length > 1 ? metadata.files.map((f) => `${fixed(f.aoiDeg, 1)}°`).join(', ') : m.aoiDeg === undefined ? MISSING : `${fixed(m.aoiDeg, 1)}°`],
     ['Temperature', m.temperatureC === undefined ? MISSING : `${fixed(m.temperatureC, 1)} °C`],
-    ['Polarisation', m.polarization === 'unpolarized' ? 'unpolarised' : (m.polarization ?? MISSING)],
+    ['Polarisation', labelOf(POLARIZATION_LABELS, m.polarization, MISSING)],
     ['Date measured', m.measuredOn ?? MISSING],
     ['Where measured', m.lab ?? MISSING],
   ];
@@ -130,7 +132,7 @@ export function CurvesTable({ curves }: { curves: CurveRow[] }) {
           <tbody className="figures">
             {curves.map((c) => (
               <tr key={c.id} data-curve={c.id}>
-                <td className={td}>#{c.id}</td>
+                <td className={td}>{c.status === 'verified' ? <Link href={`/curves/${c.id}`} className="text-accent underline underline-offset-2">{formatCurveId(c.id)}</Link> : formatCurveId(c.id)}</td>
                 <td className={`${td} text-right`}>{fixed(c.aoiDeg, 1)}°</td>
                 <td className={`${td} text-right`}>{formatTransmission(c.peakT)}</td>
                 <td className={`${td} text-right`}>{formatNm(c.cwlNm)}</td>

@@ -2,6 +2,7 @@ import Link from 'next/link';
 import { currentActor, hasRole } from '@/lib/auth/actor';
 import { NightViewToggle } from './night-view';
 import { SignOutButton } from './sign-out-button';
+import { ROLE_LABELS, labelOf } from '@/lib/labels';
 
 type NavItem = { href: string; label: string; show: boolean };
 
@@ -40,7 +41,7 @@ export async function SiteHeader() {
           {actor ? (
             <>
               <span className="hidden md:inline text-muted" data-testid="signed-in-as">
-                {actor.name ?? actor.email} · {actor.role}
+                {actor.name ?? actor.email} · {labelOf(ROLE_LABELS, actor.role)}
               </span>
               <SignOutButton />
             </>

@@ -6,6 +6,7 @@ import { DataTable } from '@/components/table/data-table';
 import { fixed, formatFNumber, formatSignedNm, formatTransmission, MISSING } from '@/components/charts/format';
 import type { CurveStudy } from '@/lib/study/types';
 import { baseName } from '@/lib/study/verdict';
+import { formatCurveId } from '@/lib/labels';
 
 type Row = {
   key: string;
@@ -58,7 +59,7 @@ export function ComparisonTable({ studies, colourOf }: { studies: CurveStudy[]; 
           <span className="inline-flex items-baseline gap-2">
             <span aria-hidden="true" className="h-2.5 w-2.5 shrink-0 self-center rounded-full" style={{ background: r.colour }} />
             <span>
-              {r.id != null ? <span className="figures text-xs text-muted">#{r.id} </span> : null}
+              {r.id != null ? <span className="figures text-xs text-muted">{formatCurveId(r.id)} </span> : null}
               {r.label}
             </span>
           </span>

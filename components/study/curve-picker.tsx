@@ -7,6 +7,7 @@ import { inRange, REQUEST_LIMITS } from '@/lib/engine/limits';
 import type { StudyCurve } from '@/lib/study/types';
 import type { SearchResult } from '@/lib/catalogue/search';
 import { api } from '@/lib/api-client';
+import { formatCurveId, parseCurveRef } from '@/lib/labels';
 
 
 const lineNames = (ids: string[]) => ids.map((id) => findLine(id)?.name ?? id).join(' + ');
@@ -41,6 +42,8 @@ export function CatalogueSearch({ exclude, onPick, disabled }: { exclude: number
       clearTimeout(timer);
     };
   }, [text, searching]);
+  // A typed curve id ("C-111", "#111") is offered as itself, ahead of the word search's hits.
+  const typedId = text.length >= 2 && (text[0] === '#' || text[0].toUpperCase() === 'C') ? parseCurveRef(text) : null;
   const shownHits = searching ? hits : null;
   const shownError = searching ? error : null;
 
@@ -63,6 +66,12 @@ export function CatalogueSearch({ exclude, onPick, disabled }: { exclude: number
         {loading ? 'Searching' : shownHits ? `${shownHits.length} curves found` : ''}
       </p>
       {shownError ? <p className="text-xs text-bad">{shownError}</p> : null}
+      {typedId !== null ? (
+        <button type="button" disabled={disabled || exclude.includes(typedId)} onClick={() => { onPick(typedId); setQ(''); }}
+          className="rounded-card border border-rule px-2 py-1 text-sm hover:border-accent disabled:opacity-50">
+          Add curve {formatCurveId(typedId)}
+        </button>
+      ) : null}
       {shownHits ? (
         shownHits.length ? (
           <ul className="max-h-64 divide-y divide-rule/60 overflow-auto rounded-card border border-rule" aria-label="Matching curves">
@@ -79,7 +88,7 @@ export function CatalogueSearch({ exclude, onPick, disabled }: { exclude: number
                     }}
                     className="flex w-full items-baseline gap-2 px-2 py-1.5 text-left text-sm hover:bg-accent/5 disabled:opacity-50"
                   >
-                    <span className="figures shrink-0 text-xs text-muted">#{h.id}</span>
+                    <span className="figures shrink-0 text-xs text-muted">{formatCurveId(h.id)}</span>
                     <span className="min-w-0 flex-1 truncate">{h.label}</span>
                     <span className="figures shrink-0 text-xs text-muted">
                       {lineNames(h.lines)} {h.fwhmNm != null ? `· ${formatNm(h.fwhmNm)}` : ''}

@@ -11,10 +11,11 @@ import type { AngleBin } from '@/lib/engine/types';
 import { EXPLORER_HIGHLIGHT_WIDTHS_NM } from '@/lib/study/explorer';
 import type { StudyResults } from '@/lib/study/compute';
 import type { CurveStudy, StudySettings } from '@/lib/study/types';
+import { formatCurveId } from '@/lib/labels';
 
 /** Short series names: labels repeat between units of one filter, ids do not. */
 export function seriesName(st: CurveStudy): string {
-  return st.curve.id != null ? `#${st.curve.id} ${st.curve.label}` : `${st.curve.label} (pasted)`;
+  return st.curve.id != null ? `${formatCurveId(st.curve.id)} ${st.curve.label}` : `${st.curve.label} (pasted)`;
 }
 
 function opticText(s: StudySettings): string {
@@ -104,7 +105,7 @@ export function StudyCharts({ results, settings, studies }: { results: StudyResu
       const b = st.onAxis.bestPreShift;
       if (!b || seen.has(b.nm)) return;
       seen.add(b.nm);
-      m.push({ value: b.nm, label: studies.length > 1 ? `best ${formatSignedNm(b.nm)} (#${st.curve.id ?? st.curve.key})` : `best ${formatSignedNm(b.nm)}` });
+      m.push({ value: b.nm, label: studies.length > 1 ? `best ${formatSignedNm(b.nm)} (${st.curve.id != null ? formatCurveId(st.curve.id) : st.curve.key})` : `best ${formatSignedNm(b.nm)}` });
     });
     return m;
   }, [studies, settings.preShiftNm]);
@@ -120,7 +121,7 @@ export function StudyCharts({ results, settings, studies }: { results: StudyResu
 
   const ex = results.explorer;
   const exPoints = useMemo(
-    () => (ex ? ex.markers.map((m) => ({ name: `#${m.key.replace(/^c/, '')}`, x: m.widthNm, y: m.shiftNm, value: m.throughput })) : []),
+    () => (ex ? ex.markers.map((m) => ({ name: formatCurveId(m.key.replace(/^c/, '')), x: m.widthNm, y: m.shiftNm, value: m.throughput })) : []),
     [ex],
   );
 
@@ -318,7 +319,7 @@ function ExplorerSummary({ results, settings }: { results: StudyResults; setting
       {ex.markers.length ? (
         <p>
           Dots are your curves at their own FWHM and centre offset from the line:{' '}
-          {ex.markers.map((m) => `#${m.key.replace(/^c/, '')} ${formatNm(m.widthNm)} at ${formatSignedNm(m.shiftNm)} (${formatTransmission(m.throughput)} measured)`).join('; ')}.
+          {ex.markers.map((m) => `${formatCurveId(m.key.replace(/^c/, ''))} ${formatNm(m.widthNm)} at ${formatSignedNm(m.shiftNm)} (${formatTransmission(m.throughput)} measured)`).join('; ')}.
         </p>
       ) : null}
     </div>

@@ -10,6 +10,7 @@ import { MAX_STUDY_CURVES, readLine, type OpticChoice, type QueryField, type Res
 import { NEFF_RANGES_TEXT } from '@/lib/study/verdict';
 import { CatalogueSearch, PasteCurve } from './curve-picker';
 import { PanelSection, StudyField } from './study-field';
+import { formatCurveId } from '@/lib/labels';
 
 export type OpticOption = OpticChoice & { description: string | null; isExample: boolean; mine: boolean };
 
@@ -68,7 +69,7 @@ export function StudyInputs(p: StudyInputsProps) {
               <li key={c.key} className="flex items-start gap-2 text-sm">
                 <span aria-hidden="true" className="mt-1.5 h-2.5 w-2.5 shrink-0 rounded-full" style={{ background: p.colours[i] }} />
                 <span className="min-w-0 flex-1 leading-snug">
-                  {c.id != null ? <span className="figures text-xs text-muted">#{c.id} </span> : <span className="text-xs text-muted">pasted </span>}
+                  {c.id != null ? <span className="figures text-xs text-muted">{formatCurveId(c.id)} </span> : <span className="text-xs text-muted">pasted </span>}
                   {c.label}
                   {c.aoiDeg ? <span className="figures text-xs text-muted"> · {fixed(c.aoiDeg, 0)}° AOI</span> : null}
                 </span>
@@ -76,7 +77,7 @@ export function StudyInputs(p: StudyInputsProps) {
                   type="button"
                   onClick={() => p.onRemove(c)}
                   className="rounded-card px-1.5 text-muted hover:text-bad"
-                  aria-label={`Remove ${c.label}${c.id != null ? ` (#${c.id})` : ''} from the study`}
+                  aria-label={`Remove ${c.label}${c.id != null ? ` (${formatCurveId(c.id)})` : ''} from the study`}
                   title="Remove from the study"
                 >
                   ×
@@ -244,7 +245,7 @@ export function StudyInputs(p: StudyInputsProps) {
                   title={`Best pre-shift for ${st.curve.label}`}
                 >
                   Use best {formatSignedNm(st.onAxis.bestPreShift.nm)}
-                  {studies.length > 1 ? ` (#${st.curve.id ?? 'pasted'})` : ''}
+                  {studies.length > 1 ? ` (${st.curve.id != null ? formatCurveId(st.curve.id) : 'pasted'})` : ''}
                 </button>
               ) : null,
             )}

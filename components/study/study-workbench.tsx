@@ -20,6 +20,7 @@ import { SkyPanel } from './sky-panel';
 import { StudyInputs, type OpticOption } from './study-inputs';
 import { useStudyCompute } from './use-study-compute';
 import { VerdictCard } from './verdict-card';
+import { formatCurveId } from '@/lib/labels';
 
 export interface StudyWorkbenchProps {
   initialQuery: StudyQuery;
@@ -205,7 +206,7 @@ export function StudyWorkbench(props: StudyWorkbenchProps) {
 
           {props.missing.length ? (
             <p role="alert" className="rounded-card border border-bad px-3 py-2 text-sm text-bad">
-              {props.missing.map((id) => `#${id}`).join(', ')}: not in the catalogue, or not visible to you.
+              {props.missing.map((id) => formatCurveId(id)).join(', ')}: not in the catalogue, or not visible to you.
             </p>
           ) : null}
           {error ? (

@@ -10,6 +10,7 @@ import { verdictFor, type Tone } from '@/lib/study/verdict';
 import { straddledMarks } from '@/lib/study/error-bar';
 import { firstOrderTrust } from '@/lib/engine/first-order-designs';
 import { FIRST_ORDER_TABLE } from '@/lib/engine/first-order-table';
+import { formatCurveId } from '@/lib/labels';
 
 const TONE: Record<Tone, { className: string; word: string; icon: string }> = {
   good: { className: 'text-ok border-ok', word: 'Keeps most of the line', icon: 'M3 8.5 6.5 12 13 4.5' },
@@ -58,7 +59,7 @@ export function VerdictCard({ study, settings, colour }: { study: CurveStudy; se
             {v.lineLabel}
           </p>
           <p className="figures mt-0.5 text-xs text-muted">
-            {c.id != null ? `curve #${c.id}` : 'pasted, not stored'} · measured at {formatDeg(c.aoiDeg)} AOI
+            {c.id != null ? `curve ${formatCurveId(c.id)}` : 'pasted, not stored'} · measured at {formatDeg(c.aoiDeg)} AOI
             {c.cwlNm != null ? ` · CWL ${formatNm(c.cwlNm)}` : ''}
             {c.fwhmNm != null ? ` · ${formatNm(c.fwhmNm)} FWHM` : ''}
           </p>

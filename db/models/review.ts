@@ -1,6 +1,7 @@
 import { DataTypes, Model, type Sequelize, type InferAttributes, type InferCreationAttributes, type CreationOptional } from 'sequelize';
 
-export type ReviewKind = 'verify' | 'request_changes' | 'reject' | 'note' | 'reply';
+export const REVIEW_KINDS = ['verify', 'request_changes', 'reject', 'note', 'reply'] as const;
+export type ReviewKind = (typeof REVIEW_KINDS)[number];
 
 // Decisions and the notes around them form one thread per submission.
 export class Review extends Model<InferAttributes<Review>, InferCreationAttributes<Review>> {

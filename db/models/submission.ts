@@ -2,7 +2,8 @@ import { DataTypes, Model, type Sequelize, type InferAttributes, type InferCreat
 
 export const SUBMISSION_STATUSES = ['submitted', 'changes_requested', 'verified', 'rejected'] as const;
 export type SubmissionStatus = (typeof SUBMISSION_STATUSES)[number];
-export type CheckLevel = 'info' | 'warn' | 'error';
+export const CHECK_LEVELS = ['info', 'warn', 'error'] as const;
+export type CheckLevel = (typeof CHECK_LEVELS)[number];
 export type StoredCheck = { code: string; level: CheckLevel; message: string; file?: string };
 
 export class Submission extends Model<InferAttributes<Submission>, InferCreationAttributes<Submission>> {

@@ -27,11 +27,13 @@ function isHex(c: string): boolean {
   return (c >= '0' && c <= '9') || (c >= 'a' && c <= 'f') || (c >= 'A' && c <= 'F');
 }
 
+/** Whether the text is a UUID in its 8-4-4-4-12 hex form (RFC 9562). */
+export function isUuid(raw: string): boolean {
+  return typeof raw === 'string' && raw.length === 36 && [...raw].every((c, i) => ([8, 13, 18, 23].includes(i) ? c === '-' : isHex(c)));
+}
+
 /** A UUID in its 8-4-4-4-12 hex form (RFC 9562), or a 404. */
 export function parseUuid(raw: string, what = 'item'): string {
-  const ok =
-    typeof raw === 'string' && raw.length === 36 &&
-    [...raw].every((c, i) => ([8, 13, 18, 23].includes(i) ? c === '-' : isHex(c)));
-  if (!ok) throw notFound(`No such ${what}.`);
+  if (!isUuid(raw)) throw notFound(`No such ${what}.`);
   return raw.toLowerCase();
 }

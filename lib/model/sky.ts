@@ -4,6 +4,7 @@ import { loadReadableCurve } from '@/lib/catalogue/points';
 import type { SkyRequest } from '@/lib/engine/sky';
 import type { z } from 'zod';
 import type { skyRequestSchema } from '@/lib/schemas/model';
+import { formatCurveId } from '@/lib/labels';
 
 /** A reference curve named by id becomes its points (readable curves only), measured AOI and label. */
 export async function resolveSkyReference(req: Request, sky: z.infer<typeof skyRequestSchema>): Promise<SkyRequest> {
@@ -12,6 +13,6 @@ export async function resolveSkyReference(req: Request, sky: z.infer<typeof skyR
   const curve = await loadReadableCurve(await currentActor(req), ref.curveId);
   return {
     model: sky.model,
-    reference: { points: { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission }, measuredAoiDeg: curve.aoiDeg, label: `curve #${curve.id}` },
+    reference: { points: { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission }, measuredAoiDeg: curve.aoiDeg, label: `curve ${formatCurveId(curve.id)}` },
   };
 }

@@ -3,6 +3,7 @@ import { readerOptionsSchema } from './model';
 import { COATINGS } from '@/lib/engine/temperature';
 import { LINE_IDS } from '@/lib/engine/lines';
 import { INSTRUMENTS, REQUEST_LIMITS } from '@/lib/engine/limits';
+import { BEAMS, POLARIZATIONS, LICENCES, DECISIONS } from '@/lib/labels';
 
 export { LINE_IDS, INSTRUMENTS };
 
@@ -17,11 +18,11 @@ export const methodSchema = z
   .object({
     instrument: z.enum(INSTRUMENTS, { error: 'Choose the instrument kind' }),
     resolutionNm: positive('Resolution').max(50, 'Resolution above 50 nm cannot resolve a narrowband filter'),
-    beam: z.enum(['collimated', 'converging'], { error: 'Say whether the beam was collimated or converging' }),
+    beam: z.enum(BEAMS, { error: 'Say whether the beam was collimated or converging' }),
     beamFNumber: z.number().min(0.5).max(100).optional(),
     aoiDeg: aoi(),
     temperatureC: z.number().min(-60).max(80).optional(),
-    polarization: z.enum(['unpolarized', 's', 'p']).optional(),
+    polarization: z.enum(POLARIZATIONS).optional(),
     // hard (sputtered), soft (evaporated) or unknown: sets the default temperature coefficient
     coating: z.enum(COATINGS, { error: 'coating must be hard, soft or unknown' }).optional(),
     // declared standard uncertainty of the wavelength scale; without it the quality check uses the instrument's default
@@ -44,7 +45,7 @@ export const submissionMetadataSchema = z.object({
   serial: optionalText(100),
   sizeMm: optionalText(50),
   notes: optionalText(4000),
-  licence: z.enum(['CC-BY-4.0', 'CC0-1.0']).default('CC-BY-4.0'),
+  licence: z.enum(LICENCES).default('CC-BY-4.0'),
   method: methodSchema,
   // `reader` carries the overrides the contributor chose in the live preview, so the stored curve is the one they saw.
   files: z.array(z.object({ name: z.string().min(1).max(255), aoiDeg: aoi(), reader: readerOptionsSchema.optional(), temperatureC: z.number().min(-60).max(80).optional() })).max(20).optional(),
@@ -54,7 +55,7 @@ export type SubmissionMetadata = z.output<typeof submissionMetadataSchema>;
 export type SubmissionMetadataInput = z.input<typeof submissionMetadataSchema>;
 
 export const reviewDecisionSchema = z.object({
-  decision: z.enum(['verify', 'request_changes', 'reject'], { error: 'decision must be verify, request_changes or reject' }),
+  decision: z.enum(DECISIONS, { error: 'decision must be verify, request_changes or reject' }),
   note: z.string().trim().max(4000).default(''),
 }).refine((d) => d.decision === 'verify' || d.note.length > 0, { message: 'Say why in the note', path: ['note'] });
 
@@ -71,7 +72,7 @@ export const previewMetadataSchema = z.object({
     z.object({
       instrument: loose(z.string()),
       resolutionNm: loose(z.number().positive()),
-      beam: loose(z.enum(['collimated', 'converging'])),
+      beam: loose(z.enum(BEAMS)),
       beamFNumber: loose(z.number().positive()),
       aoiDeg: loose(z.number().min(0).max(MAX_AOI)),
       temperatureC: loose(z.number()),

@@ -10,9 +10,10 @@ import { predictCwl } from '@/lib/engine/neff';
 import type { StudyResults } from './compute';
 import type { CurveStudy, StudySettings } from './types';
 import { verdictFor } from './verdict';
+import { formatCurveId } from '@/lib/labels';
 
 /** Column names carry the id: units of one filter share a label. */
-const nameOf = (st: CurveStudy) => (st.curve.id != null ? `#${st.curve.id} ${st.curve.label}` : `${st.curve.label} (pasted)`);
+const nameOf = (st: CurveStudy) => (st.curve.id != null ? `${formatCurveId(st.curve.id)} ${st.curve.label}` : `${st.curve.label} (pasted)`);
 const round = (v: number | null, d: number) => (v == null ? 'none' : String(Math.round(v * 10 ** d) / 10 ** d));
 
 function section(title: string, rows: CsvCell[][]): string {

@@ -19,6 +19,7 @@ import { findLine, LINES } from '@/lib/engine/lines';
 import { REQUEST_LIMITS as L } from '@/lib/engine/limits';
 import type { Mapping } from '@/lib/engine/types';
 import type { StudyOptic, StudySettings, TargetLine } from './types';
+import { parseCurveRef } from '@/lib/labels';
 
 export const MAX_STUDY_CURVES = 4;
 
@@ -61,8 +62,9 @@ export function parseStudyQuery(src: ParamSource): StudyQuery {
   const ids: number[] = [];
   for (const raw of getAll(src, 'curve')) {
     for (const part of raw.split(',')) {
-      const id = Number(part.trim());
-      if (Number.isInteger(id) && id > 0 && id <= 2_147_483_647 && !ids.includes(id)) ids.push(id);
+      // "111" and the interface's own "C-111" both name curve 111 (lib/labels.ts)
+      const id = parseCurveRef(part);
+      if (id !== null && !ids.includes(id)) ids.push(id);
     }
   }
   const opticRaw = Number(first(src, 'optic'));

@@ -217,7 +217,7 @@ describe('choosing curves inside the study', () => {
     await cut.close();
     expect(Number((await query<{ n: string }>('SELECT count(*) AS n FROM curves'))[0].n)).toBe(curvesBefore);
 
-    await page.getByRole('button', { name: new RegExp(`Remove .*\\(#${picked}\\) from the study`) }).click();
+    await page.getByRole('button', { name: new RegExp(`Remove .*\\(C-${picked}\\) from the study`) }).click();
     await expect.poll(() => page.getByTestId('verdict').count(), { timeout: 30_000 }).toBe(2);
     await page.waitForFunction(() => !new URL(location.href).searchParams.get('curve')?.includes(','));
     await context.close();

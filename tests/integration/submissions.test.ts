@@ -360,4 +360,26 @@ describe('e-mail on every decision and note', () => {
     expect(mail?.text_body).toContain('Which lab measured it?');
     expect(mail?.text_body).toContain(`/account/submissions/${s.id}`);
   });
+
+  it('mails a verified submission with its S- id and a link to the public curve, not only to the submission', async () => {
+    const u = await makeUser('contributor');
+    const c = await signIn(u.email, u.password);
+    const s = await submit(c, [singleCurve()], metadataFor({ label: 'Published link check' }));
+    const res = await post(moderator, `/api/submissions/${s.id}/review`, { decision: 'verify', note: '' });
+    expect(res.status).toBe(200);
+    const [curve] = await query<{ id: number }>(`SELECT id FROM curves WHERE submission_id = :id AND status = 'verified'`, { id: s.id });
+    const deadline = Date.now() + 10_000;
+    let mail: { subject: string; text_body: string } | undefined;
+    while (!mail && Date.now() < deadline) {
+      [mail] = await query<{ subject: string; text_body: string }>(`SELECT subject, text_body FROM mail_messages WHERE :email = ANY(envelope_to) AND subject LIKE '%verified and published%' ORDER BY id DESC LIMIT 1`, { email: u.email });
+      if (!mail) await new Promise((r) => setTimeout(r, 200));
+    }
+    expect(mail?.subject).toContain(`S-${s.id} "Published link check"`);
+    // the public page comes first, the thread after
+    const body = mail?.text_body ?? '';
+    expect(body).toContain(`/curves/${curve.id}\n`);
+    expect(body.indexOf(`/curves/${curve.id}`)).toBeLessThan(body.indexOf(`/account/submissions/${s.id}`));
+    // a submission number never passes for a curve number
+    expect(body).not.toMatch(new RegExp(`#${s.id}\\b`));
+  });
 });

@@ -4,6 +4,7 @@ import { requirePageRole } from '@/lib/auth/actor';
 import { getAccountView } from '@/lib/account/overview';
 import { MySubmissionsTable } from '@/components/account/my-submissions-table';
 import { SignOutEverywhere } from '@/components/account/sign-out-everywhere';
+import { ROLE_LABELS, labelOf } from '@/lib/labels';
 
 export const metadata: Metadata = { title: 'Account' };
 
@@ -21,7 +22,7 @@ export default async function AccountPage() {
             <dt className="text-muted">E-mail</dt>
             <dd>{actor.email}</dd>
             <dt className="text-muted">Role</dt>
-            <dd data-testid="account-role">{actor.role}</dd>
+            <dd data-testid="account-role">{labelOf(ROLE_LABELS, actor.role)}</dd>
           </dl>
           {liveSessions !== null ? <SignOutEverywhere sessions={liveSessions} /> : null}
         </div>

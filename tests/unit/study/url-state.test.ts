@@ -14,6 +14,10 @@ describe('the study link', () => {
     expect(parseStudyQuery({ curve: ['3', '4,5'] }).curveIds).toEqual([3, 4, 5]);
   });
 
+  it('reads the curve ids the interface shows (C-111) and refuses submission ids (S-87)', () => {
+    expect(parseStudyQuery(new URLSearchParams('curve=C-111,c12,S-87,%2313')).curveIds).toEqual([111, 12, 13]);
+  });
+
   it('writes the same link for the same study, without empty values, and reads it back unchanged', () => {
     const q = parseStudyQuery(new URLSearchParams('line=Ha&curve=9,2&optic=1&shift=0.5&map=sine&n='));
     const search = studySearch(q);

@@ -1,25 +1,58 @@
 import type { Metadata } from 'next';
+import Link from 'next/link';
 import { requirePageRole } from '@/lib/auth/actor';
-import { db } from '@/db/models';
+import { getUsers } from '@/lib/admin/users';
+import { usersQuerySchema } from '@/lib/schemas/admin';
+import { ACCESS_LABELS, ROLE_LABELS } from '@/lib/labels';
+import { Pager } from '@/components/admin/pager';
 import { AdminNav } from '../nav';
-import { UsersTable, type UserRow } from './users-table';
+import { UsersTable } from './users-table';
 
 export const metadata: Metadata = { title: 'Users and roles' };
 export const dynamic = 'force-dynamic';
 
-export default async function AdminUsersPage() {
+const input = 'w-full min-w-0 rounded-card border border-rule bg-panel px-2 py-1';
+
+export default async function AdminUsersPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const admin = await requirePageRole('admin', '/admin/users');
-  const { User } = db();
-  const users = await User.findAll({ order: [['createdAt', 'ASC']] });
-  const rows: UserRow[] = users.map((u) => ({
-    id: u.id, name: u.name ?? '', email: u.email, role: u.role, disabled: !!u.disabledAt,
-    confirmed: !!u.emailVerified, createdAt: u.createdAt.toISOString(),
-  }));
+  const raw = await searchParams;
+  const query = usersQuerySchema.parse(Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, Array.isArray(v) ? v[0] : v])));
+  const view = await getUsers(admin, query);
+  const filtered = !!(query.q || query.role || query.access);
   return (
     <div className="space-y-4">
       <h1 className="text-2xl font-semibold">Administration</h1>
       <AdminNav current="users" />
-      <UsersTable rows={rows} selfId={admin.id} />
+      <form method="get" role="search" aria-label="Find users" className="grid gap-3 text-sm sm:grid-cols-[minmax(0,2fr)_minmax(0,1fr)_minmax(0,1fr)_auto]">
+        <label className="space-y-1">
+          <span className="block font-medium">Name or e-mail</span>
+          <input type="search" name="q" defaultValue={query.q} placeholder="part of a name or address" className={input} />
+        </label>
+        <label className="space-y-1">
+          <span className="block font-medium">Role</span>
+          <select name="role" defaultValue={query.role ?? ''} className={input}>
+            <option value="">any role</option>
+            {Object.entries(ROLE_LABELS).map(([k, v]) => <option key={k} value={k}>{v}</option>)}
+          </select>
+        </label>
+        <label className="space-y-1">
+          <span className="block font-medium">State</span>
+          <select name="access" defaultValue={query.access ?? ''} className={input}>
+            <option value="">any state</option>
+            {Object.entries(ACCESS_LABELS).map(([k, v]) => <option key={k} value={k}>{v}</option>)}
+          </select>
+        </label>
+        <div className="flex items-end gap-3">
+          <button className="rounded-card bg-accent px-3 py-1.5 text-accent-ink">Find</button>
+          {filtered ? <Link href="/admin/users" className="underline underline-offset-2">Show all</Link> : null}
+        </div>
+      </form>
+      <Pager path="/admin/users" query={query} page={view.page} pages={view.pages} total={view.total} noun={['user', 'users']} />
+      {view.rows.length ? (
+        <UsersTable key={JSON.stringify(query)} rows={view.rows} selfId={view.selfId} />
+      ) : (
+        <p className="text-muted" data-testid="users-empty">{filtered ? 'No user matches.' : 'No users yet.'}</p>
+      )}
     </div>
   );
 }

@@ -11,6 +11,7 @@ import { DecisionForm } from '@/components/review/decision-form';
 import { QualityList } from '@/components/review/quality-list';
 import { assessCurveQuality } from '@/lib/engine/quality';
 import { DEFAULT_N_EFF } from '@/lib/catalogue/fitness-grid';
+import { formatSubmissionId } from '@/lib/labels';
 
 export const metadata: Metadata = { title: 'Review' };
 
@@ -22,7 +23,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
   return (
     <div className="space-y-8">
       <nav aria-label="Breadcrumb" className="text-sm text-muted">
-        <Link href="/review" className="underline underline-offset-2">Review queue</Link> / #{s.id}
+        <Link href="/review" className="underline underline-offset-2">Review queue</Link> / {formatSubmissionId(s.id)}
       </nav>
       <header className="space-y-2">
         <div className="flex flex-wrap items-center gap-3">
@@ -30,7 +31,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
           <StatusBadge status={s.status} />
         </div>
         <p className="text-sm text-muted">
-          Submission #{s.id} · revision {s.revision} · from {s.contributor.name ?? 'unnamed contributor'} · sent {s.createdAt.slice(0, 10)} · <CheckSummary counts={countChecks(s.checks)} />
+          Submission {formatSubmissionId(s.id)} · revision {s.revision} · from {s.contributor.name ?? 'unnamed contributor'} · sent {s.createdAt.slice(0, 10)} · <CheckSummary counts={countChecks(s.checks)} />
         </p>
       </header>
 

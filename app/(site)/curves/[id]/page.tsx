@@ -19,6 +19,7 @@ import { INSTRUMENT_NAMES } from '@/components/catalogue/labels';
 import { QualityList } from '@/components/review/quality-list';
 import { assessCurveQuality } from '@/lib/engine/quality';
 import { COATING_NAMES, defaultTempCoeff, type Coating } from '@/lib/engine/temperature';
+import { BEAM_LABELS, LICENCE_SHORT, POLARIZATION_LABELS, formatCurveId, labelOf } from '@/lib/labels';
 
 type Props = { params: Promise<{ id: string }> };
 
@@ -69,10 +70,10 @@ function methodRows(d: CurveDetail) {
   const rows: [string, string][] = [
     ['Instrument', INSTRUMENT_NAMES[d.instrument] ?? d.instrument],
     ['Resolution or step', m.resolutionNm !== undefined ? formatNm(Number(m.resolutionNm), 2) : '—'],
-    ['Beam', m.beam === 'converging' ? `converging at ${formatFNumber(Number(m.beamFNumber))}` : String(m.beam ?? '—')],
+    ['Beam', m.beam === 'converging' ? `${BEAM_LABELS.converging} at ${formatFNumber(Number(m.beamFNumber))}` : labelOf(BEAM_LABELS, m.beam as string | undefined)],
     ['Angle of incidence', formatDeg(d.aoiDeg)],
     ['Temperature', m.temperatureC !== undefined ? `${fixed(Number(m.temperatureC), 1)} °C` : '—'],
-    ['Polarisation', m.polarization ? String(m.polarization) : '—'],
+    ['Polarisation', labelOf(POLARIZATION_LABELS, m.polarization as string | undefined)],
     ['Coating', COATING_NAMES[(m.coating as Coating | undefined) ?? 'unknown'] ?? '—'],
     [
       'Temperature drift',
@@ -111,7 +112,7 @@ export default async function CurvePage({ params }: Props) {
           <Link href="/curves" className="underline-offset-4 hover:underline">
             Catalogue
           </Link>{' '}
-          / curve {d.id}
+          / curve {formatCurveId(d.id)}
         </p>
         <div className="flex flex-wrap items-center gap-3">
           <h1 className="text-2xl font-semibold tracking-tight">{d.title}</h1>
@@ -238,7 +239,7 @@ export default async function CurvePage({ params }: Props) {
             <Row label="Verified">{d.verifiedAt ? d.verifiedAt.slice(0, 10) : 'not yet'}</Row>
             <Row label="Licence">
               <a href={LICENCE_LINKS[d.licence]} className="text-accent underline-offset-4 hover:underline" rel="license">
-                {d.licence}
+                {labelOf(LICENCE_SHORT, d.licence)}
               </a>
             </Row>
             {d.serial ? <Row label="Unit serial">{d.serial}</Row> : null}
@@ -289,7 +290,7 @@ export default async function CurvePage({ params }: Props) {
                     </p>
                     <StripPlot
                       values={values}
-                      labels={spread.curves.filter((c) => (k === 'cwl' ? c.cwlNm : c.fwhmNm) !== null).map((c) => `curve ${c.id}`)}
+                      labels={spread.curves.filter((c) => (k === 'cwl' ? c.cwlNm : c.fwhmNm) !== null).map((c) => `curve ${formatCurveId(c.id)}`)}
                       nominal={(k === 'cwl' ? d.nominal.cwlNm : d.nominal.fwhmNm) ?? undefined}
                       label={`${k === 'cwl' ? 'CWL' : 'FWHM'} of the ${values.length} units sharing this label`}
                       width={300}

@@ -11,6 +11,7 @@ import { Thread } from '@/components/review/thread';
 import { WorkbenchLoader } from '@/components/submit/workbench-loader';
 import { LaserCaution } from '@/components/submit/laser-caution';
 import type { MetadataForm } from '@/components/submit/metadata-fields';
+import { formatSubmissionId } from '@/lib/labels';
 
 export const metadata: Metadata = { title: 'Submission' };
 
@@ -36,7 +37,7 @@ export default async function MySubmissionPage({ params, searchParams }: { param
   return (
     <div className="space-y-8">
       <nav aria-label="Breadcrumb" className="text-sm text-muted">
-        <Link href="/account" className="underline underline-offset-2">Account</Link> / My submissions / #{s.id}
+        <Link href="/account" className="underline underline-offset-2">Account</Link> / My submissions / {formatSubmissionId(s.id)}
       </nav>
       <header className="space-y-2">
         <div className="flex flex-wrap items-center gap-3">
@@ -44,7 +45,7 @@ export default async function MySubmissionPage({ params, searchParams }: { param
           <StatusBadge status={s.status} />
         </div>
         <p className="text-sm text-muted">
-          Submission #{s.id} · revision {s.revision} · sent {s.createdAt.slice(0, 10)}{s.decidedAt ? ` · last decision ${s.decidedAt.slice(0, 10)}` : ''} · <CheckSummary counts={countChecks(s.checks)} />
+          Submission {formatSubmissionId(s.id)} · revision {s.revision} · sent {s.createdAt.slice(0, 10)}{s.decidedAt ? ` · last decision ${s.decidedAt.slice(0, 10)}` : ''} · <CheckSummary counts={countChecks(s.checks)} />
         </p>
         {sp.sent ? <p role="status" className="rounded-card border border-ok/50 bg-ok/10 p-3 text-sm">Sent. It is in the review queue now; a moderator will check it against its method.</p> : null}
         {sp.revised ? <p role="status" className="rounded-card border border-ok/50 bg-ok/10 p-3 text-sm">Revision {s.revision} sent; it is back in the review queue.</p> : null}
