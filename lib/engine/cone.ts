@@ -28,6 +28,12 @@ export function validateShift(p: ShiftParams): InputDetail[] {
   const d: InputDetail[] = [];
   const num = (v: unknown) => typeof v === 'number' && Number.isFinite(v);
   if (!num(p.nEff) || p.nEff < 1 || p.nEff > 4) d.push({ field: 'nEff', message: 'the effective index must be between 1.0 and 4.0' });
+  if (p.nEffPolarised !== undefined) {
+    for (const pol of ['s', 'p'] as const) {
+      const v = p.nEffPolarised?.[pol];
+      if (!num(v) || v! < 1 || v! > 4) d.push({ field: `nEffPolarised.${pol}`, message: `the ${pol} effective index must be between 1.0 and 4.0` });
+    }
+  }
   if (p.measuredAoiDeg !== undefined && (!num(p.measuredAoiDeg) || p.measuredAoiDeg < 0 || p.measuredAoiDeg > 80)) {
     d.push({ field: 'measuredAoiDeg', message: 'the measurement AOI must be between 0 and 80 degrees' });
   }
@@ -107,6 +113,45 @@ export function coneKernel(pupil: Pupil, nEff: number): ConeKernel {
     c1[k] = b;
   }
   return { g, weights: pupil.weights, c0, c1 };
+}
+
+/**
+ * The kernels the cone averages over. Unpolarised light is half s and half p;
+ * with one n_eff both halves move alike, one kernel. A set measured in
+ * polarised light gives each its own index (docs/model.md §Polarised sets):
+ *   τ = ½·τ(n_eff,s) + ½·τ(n_eff,p).
+ */
+export function coneKernels(pupil: Pupil, p: ShiftParams): { kernel: ConeKernel; weight: number }[] {
+  if (!p.nEffPolarised) return [{ kernel: coneKernel(pupil, p.nEff), weight: 1 }];
+  return [
+    { kernel: coneKernel(pupil, p.nEffPolarised.s), weight: 0.5 },
+    { kernel: coneKernel(pupil, p.nEffPolarised.p), weight: 0.5 },
+  ];
+}
+
+/** coneSweep over each kernel, weighted and summed; a point is outside when any kernel needed the curve beyond its range. */
+function sweepKernels(
+  c: PreparedCurve,
+  kernels: { kernel: ConeKernel; weight: number }[],
+  A: ArrayLike<number>,
+  B: ArrayLike<number>,
+  out: Float64Array,
+  outside?: Uint8Array,
+): void {
+  if (kernels.length === 1 && kernels[0].weight === 1) {
+    coneSweep(c, kernels[0].kernel, A, B, out, outside);
+    return;
+  }
+  const part = new Float64Array(out.length);
+  const partOut = outside ? new Uint8Array(out.length) : undefined;
+  out.fill(0);
+  for (const { kernel, weight } of kernels) {
+    coneSweep(c, kernel, A, B, part, partOut);
+    for (let i = 0; i < out.length; i++) {
+      out[i] += weight * part[i];
+      if (outside && partOut![i]) outside[i] = 1;
+    }
+  }
 }
 
 /** g = 1/s at each pupil bin edge for this n_eff. */
@@ -211,12 +256,12 @@ export function lineThroughput(
   }
   const c = prepareCurve(points);
   const { sM, shift } = frame(params);
-  const kernel = coneKernel(pupil, params.nEff);
+  const kernels = coneKernels(pupil, params);
   const out = new Float64Array(1);
   const outside = new Uint8Array(1);
   const A = sM * lambdaNm;
   const B = -sM * shift;
-  coneSweep(c, kernel, [A], [B], out, outside);
+  sweepKernels(c, kernels, [A], [B], out, outside);
   const xc = A + B;
   return {
     throughput: out[0],
@@ -245,8 +290,9 @@ export function coneCurve(
   assertShift(params);
   const c = prepareCurve(points);
   const { sM, shift } = frame(params);
-  const kernel = coneKernel(pupil, params.nEff);
-  const g = kernel.g;
+  const kernels = coneKernels(pupil, params);
+  // the default grid keeps samples whose whole cone is measured: the lowest index reaches furthest
+  const g = kernels.reduce((w, k) => (k.kernel.g[k.kernel.g.length - 1] > w.g[w.g.length - 1] ? k.kernel : w), kernels[0].kernel).g;
   const K = pupil.weights.length;
   let grid: Float64Array;
   if (wavelengthGrid) {
@@ -277,7 +323,7 @@ export function coneCurve(
   for (let i = 0; i < m; i++) A[i] = sM * grid[order[i]];
   const tau = new Float64Array(m);
   const outside = new Uint8Array(m);
-  coneSweep(c, kernel, A, B, tau, outside);
+  sweepKernels(c, kernels, A, B, tau, outside);
   const transmission = new Array<number>(m);
   let covered = true;
   for (let i = 0; i < m; i++) {
@@ -329,7 +375,7 @@ export function bestPreShift(
   }
   const { sM } = frame(params);
   const tempShift = temperatureShiftNm(params);
-  const kernel = coneKernel(pupil, params.nEff);
+  const kernels = coneKernels(pupil, params);
   const A0 = sM * lambdaNm;
 
   // Δ descending ⇒ x rising at every edge, as the sweep needs.
@@ -339,7 +385,7 @@ export function bestPreShift(
     const B = new Float64Array(m);
     for (let i = 0; i < m; i++) B[i] = -sM * (deltas[i] + tempShift);
     const out = new Float64Array(m);
-    coneSweep(c, kernel, A, B, out);
+    sweepKernels(c, kernels, A, B, out);
     return out;
   };
   const evalOne = (d: number) => evalMany(Float64Array.of(d))[0];
