@@ -44,6 +44,8 @@ export interface CurveDetail {
     effectiveBandwidthNm: number | null;
     blockingOd: number | null;
     nEff: number | null;
+    /** s and p effective indices of a set measured in polarised light (docs/model.md §Polarised sets). */
+    nEffPolarised: { s: number; p: number } | null;
     /** dCWL/dT fitted from the unit's curves at several temperatures, nm/°C. */
     tempCoeffNmPerC: number | null;
     pointCount: number;
@@ -150,6 +152,7 @@ async function detailOf(actor: Actor | null, curve: Curve, origin: string): Prom
       effectiveBandwidthNm: curve.effectiveBandwidthNm,
       blockingOd: curve.blockingOd,
       nEff: curve.nEff,
+      nEffPolarised: curve.nEffS != null && curve.nEffP != null ? { s: curve.nEffS, p: curve.nEffP } : null,
       tempCoeffNmPerC: curve.tempCoeffNmPerC ?? null,
       pointCount: curve.pointCount,
       lineTransmission: Object.entries(lt)

@@ -40,6 +40,14 @@ export const coneRequestSchema = z
     points: pointsSchema.optional(),
     optic: opticSchema,
     nEff: z.number({ error: 'nEff is required (typical 1.5–2.3)' }).min(1, 'nEff must be between 1.0 and 4.0').max(4, 'nEff must be between 1.0 and 4.0'),
+    // a set measured in polarised light: the cone averages s and p with their own indices (docs/model.md §Polarised sets)
+    nEffPolarised: z
+      .object({
+        s: z.number({ error: 'nEffPolarised.s must be a number' }).min(1, 'nEffPolarised.s must be between 1.0 and 4.0').max(4, 'nEffPolarised.s must be between 1.0 and 4.0'),
+        p: z.number({ error: 'nEffPolarised.p must be a number' }).min(1, 'nEffPolarised.p must be between 1.0 and 4.0').max(4, 'nEffPolarised.p must be between 1.0 and 4.0'),
+      })
+      .strict()
+      .optional(),
     measuredAoiDeg: z.number().min(0).max(60).optional(),
     preShiftNm: z.number().min(-50).max(50).optional(),
     tempCoeffNmPerC: z.number().min(-1).max(1).optional(),

@@ -41,6 +41,7 @@ export async function loadStudyCurves(actor: Actor | null, ids: number[]): Promi
       lines: c.lines,
       aoiDeg: c.aoiDeg,
       nEff: c.nEff,
+      nEffPolarised: c.nEffS != null && c.nEffP != null ? { s: c.nEffS, p: c.nEffP } : null,
       tempC: typeof t === 'number' && Number.isFinite(t) ? t : null,
       coating: ((c.method as { coating?: unknown })?.coating as StudyCurve['coating']) ?? null,
       tempCoeffNmPerC: c.tempCoeffNmPerC ?? null,

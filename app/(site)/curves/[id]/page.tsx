@@ -169,6 +169,11 @@ export default async function CurvePage({ params }: Props) {
             <Row label="Effective bandwidth">{formatNm(d.derived.effectiveBandwidthNm)}</Row>
             <Row label="Blocking (outside CWL ± 2·FWHM)">{d.derived.blockingOd === null ? '—' : `OD ${fixed(d.derived.blockingOd, 1)}`}</Row>
             <Row label="Effective index">{d.derived.nEff === null ? 'not measured (single angle)' : `${formatRatio(d.derived.nEff)} (fitted)`}</Row>
+            {d.derived.nEffPolarised ? (
+              <Row label="Effective index, s and p light" testId="derived-neff-sp">
+                {`s ${formatRatio(d.derived.nEffPolarised.s)} · p ${formatRatio(d.derived.nEffPolarised.p)} (fitted from the polarised curves; the study averages the two)`}
+              </Row>
+            ) : null}
             <Row label="Samples">{d.derived.pointCount.toLocaleString('en-US')}</Row>
           </dl>
           <h3 className="mt-3 text-xs font-semibold text-muted">Transmission at catalogued lines</h3>
