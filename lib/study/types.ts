@@ -60,6 +60,8 @@ export interface StudySettings {
   refTempC: number | null;
   line: TargetLine;
   radialVelocityKms: number;
+  /** The line throughput the user needs (0–1), or null; the verdict says when the error bar straddles it. */
+  neededThroughput?: number | null;
 }
 
 export interface Series {
