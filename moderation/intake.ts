@@ -111,7 +111,7 @@ export async function assess(
   viewer: Pick<Actor, 'id' | 'role'>,
   ignoreSubmissionId?: number,
 ): Promise<Intake> {
-  const set = parsed.length > 1 ? parsed.map((p) => ({ aoiDeg: p.aoiDeg, metrics: p.metrics })) : undefined;
+  const set = parsed.length > 1 ? parsed.map((p) => ({ aoiDeg: p.aoiDeg, tempC: p.temperatureC, metrics: p.metrics })) : undefined;
   const checks: Intake['checks'] = [];
   parsed.forEach((p) => {
     for (const c of runChecks({ metrics: p.metrics, metadata, aoiDeg: p.aoiDeg })) checks.push(parsed.length > 1 ? { ...c, file: p.name } : c);
