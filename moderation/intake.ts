@@ -4,7 +4,8 @@ import { readCurveText, MAX_FILE_BYTES, MAX_ROWS } from '@/lib/engine/reader';
 import { computeMetrics } from '@/lib/engine/metrics';
 import { runChecks, normalisedPointsHash } from '@/lib/engine/checks';
 import { temperatureSet } from '@/lib/engine/temperature';
-import { fitEffectiveIndex } from '@/lib/engine/neff';
+import { fitEffectiveIndex, fitPolarisedIndices, type MeasuredPolarisation } from '@/lib/engine/neff';
+import { neffPlausibility } from '@/lib/engine/checks';
 import { CurveReadError } from '@/lib/engine/errors';
 import type { CurvePoints, Metrics, Check } from '@/lib/engine/types';
 import { HttpError, unprocessable, type ErrorDetail } from '@/lib/http/errors';
@@ -24,13 +25,23 @@ export type ParsedFile = {
   aoiDeg: number;
   /** The file's own temperature in a multi-temperature set, else the method's. */
   temperatureC?: number;
+  /** The file's own polarisation in a polarised set (s and p files), else the method's. */
+  polarization?: MeasuredPolarisation;
   points: CurvePoints;
   metrics: Metrics;
   pointsHash: string;
   assumed: unknown;
 };
 
-export type Intake = { files: ParsedFile[]; checks: (Check & { file?: string })[]; level: 'info' | 'warn' | 'error'; nEff: number | null; tempCoeffNmPerC: number | null };
+export type Intake = {
+  files: ParsedFile[];
+  checks: (Check & { file?: string })[];
+  level: 'info' | 'warn' | 'error';
+  nEff: number | null;
+  /** s and p indices of a polarised set (docs/model.md §Polarised sets); null unless both fit. */
+  nEffPolarised: { s: number; p: number } | null;
+  tempCoeffNmPerC: number | null;
+};
 
 /** Refuses a whole upload before anything is written: limits first, then every file's content. */
 export function checkLimits(files: IncomingFile[]) {
@@ -74,6 +85,7 @@ export function parseFiles(files: IncomingFile[], metadata: SubmissionMetadata):
       sha256: createHash('sha256').update(file.bytes).digest('hex'),
       aoiDeg: aoiFor(file, metadata, files.length),
       temperatureC: metadata.files?.find((f) => f.name === file.name)?.temperatureC ?? metadata.method.temperatureC,
+      polarization: metadata.files?.find((f) => f.name === file.name)?.polarization ?? metadata.method.polarization,
       points: read.points,
       metrics,
       pointsHash: createHash('sha256').update(normalisedPointsHash(read.points)).digest('hex'),
@@ -99,7 +111,7 @@ export async function assess(
   viewer: Pick<Actor, 'id' | 'role'>,
   ignoreSubmissionId?: number,
 ): Promise<Intake> {
-  const set = parsed.length > 1 ? parsed.map((p) => ({ aoiDeg: p.aoiDeg, metrics: p.metrics })) : undefined;
+  const set = parsed.length > 1 ? parsed.map((p) => ({ aoiDeg: p.aoiDeg, tempC: p.temperatureC, metrics: p.metrics })) : undefined;
   const checks: Intake['checks'] = [];
   parsed.forEach((p) => {
     for (const c of runChecks({ metrics: p.metrics, metadata, aoiDeg: p.aoiDeg })) checks.push(parsed.length > 1 ? { ...c, file: p.name } : c);
@@ -134,9 +146,43 @@ export async function assess(
       nEff = null; // the set check above already says why
     }
   }
+  const polarised = polarisedSet(parsed);
+  checks.push(...polarised.checks);
   // one unit at several temperatures: fit dCWL/dT (lib/engine/temperature.ts)
   const temp = temperatureSet(parsed.map((p) => ({ aoiDeg: p.aoiDeg, tempC: p.temperatureC, cwlNm: p.metrics.cwlNm })), metadata.method.coating);
   checks.push(...temp.checks);
   const level = checks.reduce<Intake['level']>((acc, c) => (LEVEL_RANK[c.level] > LEVEL_RANK[acc] ? c.level : acc), 'info');
-  return { files: parsed, checks, level, nEff, tempCoeffNmPerC: temp.fit ? temp.fit.nmPerC : null };
+  return { files: parsed, checks, level, nEff, nEffPolarised: polarised.value, tempCoeffNmPerC: temp.fit ? temp.fit.nmPerC : null };
+}
+
+/**
+ * s and p indices from the s and p files of a set (lib/engine/neff.ts), each
+ * checked against what thin films allow like the set's own n_eff. Stored only
+ * when both are plausible; otherwise the moderator sees why.
+ */
+export function polarisedSet(parsed: Pick<ParsedFile, 'aoiDeg' | 'polarization' | 'metrics'>[]): { value: { s: number; p: number } | null; checks: Check[] } {
+  if (parsed.length < 2) return { value: null, checks: [] };
+  const rows = parsed.filter((p) => p.metrics.cwlNm !== null).map((p) => ({ aoiDeg: p.aoiDeg, cwlNm: p.metrics.cwlNm as number, polarization: p.polarization }));
+  let fit;
+  try {
+    fit = fitPolarisedIndices(rows);
+  } catch (e) {
+    return { value: null, checks: [{ code: 'set-neff-sp', level: 'warn', message: `The s and p files give no effective indices: ${e instanceof Error ? e.message : String(e)}` }] };
+  }
+  if (!fit) {
+    const has = (pol: string) => rows.some((r) => r.polarization === pol);
+    return has('s') || has('p')
+      ? { value: null, checks: [{ code: 'set-neff-sp', level: 'info', message: 'Separate s and p indices need s curves and p curves each at two or more angles (a normal-incidence curve counts for both).' }] }
+      : { value: null, checks: [] };
+  }
+  const cwl = fit.s.cwl0Nm;
+  const checks: Check[] = [];
+  let ok = true;
+  for (const pol of ['s', 'p'] as const) {
+    const f = fit[pol];
+    const pl = neffPlausibility(f.nEff, cwl);
+    if (!pl.plausible) ok = false;
+    checks.push({ code: 'set-neff-sp', level: pl.plausible ? 'info' : 'warn', message: `${pol} light: ${pl.reason} (fitted from ${f.points.length} curves, RMS residual ${f.rmsResidualNm.toFixed(3)} nm)` });
+  }
+  return { value: ok ? { s: fit.s.nEff, p: fit.p.nEff } : null, checks };
 }

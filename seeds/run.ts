@@ -30,7 +30,16 @@ function metadataFor(group: DemoCurve[]) {
     notes: c.notes,
     licence: c.licence,
     method: { ...c.method, lab: c.method.lab },
-    files: group.length > 1 ? group.map((g) => ({ name: `${g.key}.csv`, aoiDeg: g.method.aoiDeg })) : undefined,
+    // each file's own angle, temperature and polarisation: a set at several temperatures or in s and p light
+    files:
+      group.length > 1
+        ? group.map((g) => ({
+            name: `${g.key}.csv`,
+            aoiDeg: g.method.aoiDeg,
+            ...(g.method.temperatureC !== undefined ? { temperatureC: g.method.temperatureC } : {}),
+            ...(g.method.polarization ? { polarization: g.method.polarization } : {}),
+          }))
+        : undefined,
   });
 }
 

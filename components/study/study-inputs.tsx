@@ -197,6 +197,16 @@ export function StudyInputs(p: StudyInputsProps) {
           error={err.v}
           help="A receding source (positive) moves its lines toward the red by λ·v/c."
         />
+        <StudyField
+          id="study-need"
+          label="Throughput you need"
+          suffix="%"
+          value={query.need}
+          placeholder="none"
+          onChange={(v) => setField('need', v)}
+          error={err.need}
+          help="Optional. The verdict says whether the line throughput clears it, and when its error bar reaches both sides of it."
+        />
       </PanelSection>
 
       <PanelSection title="Filter">

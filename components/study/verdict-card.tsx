@@ -7,7 +7,7 @@ import { coneRequestBody, refTempFor, tempCoeffFor } from '@/lib/study/compute';
 import { COATING_NAMES, defaultTempCoeff } from '@/lib/engine/temperature';
 import type { CurveStudy, StudySettings } from '@/lib/study/types';
 import { verdictFor, type Tone } from '@/lib/study/verdict';
-import { straddledMarks } from '@/lib/study/error-bar';
+import { needVerdict, straddledMarks } from '@/lib/study/error-bar';
 import { firstOrderTrust } from '@/lib/engine/first-order-designs';
 import { FIRST_ORDER_TABLE } from '@/lib/engine/first-order-table';
 import { formatCurveId } from '@/lib/labels';
@@ -98,7 +98,7 @@ export function VerdictCard({ study, settings, colour }: { study: CurveStudy; se
         ))}
       </dl>
 
-      <ErrorBar study={study} />
+      <ErrorBar study={study} need={settings.neededThroughput ?? null} />
       <ModelLimit study={study} settings={settings} />
       <TemperatureNote study={study} settings={settings} />
 
@@ -121,13 +121,14 @@ export function VerdictCard({ study, settings, colour }: { study: CurveStudy; se
 }
 
 /** The line throughput's range within the curve's wavelength-scale uncertainty, and whether it straddles a verdict mark. */
-function ErrorBar({ study }: { study: CurveStudy }) {
+function ErrorBar({ study, need }: { study: CurveStudy; need: number | null }) {
   const line = study.onAxis.lines[0];
   const range = line?.throughputRange;
   const u = study.curve.wavelengthUncertainty;
   if (!range || !u) return null;
   const [lo, hi] = range;
   const marks = straddledMarks(range);
+  const against = need != null ? needVerdict(range, need) : null;
   return (
     <p className="border-t border-rule px-4 py-2 text-xs text-muted" data-testid="verdict-range" data-low={lo} data-high={hi}>
       <span className="figures font-medium text-ink">
@@ -137,6 +138,11 @@ function ErrorBar({ study }: { study: CurveStudy }) {
       {marks.length ? (
         <span className="block font-medium text-wait" data-testid="verdict-straddle">
           The range straddles the {marks.map((m) => `${m * 100} %`).join(' and ')} mark: within this measurement&apos;s accuracy the verdict could go either way.
+        </span>
+      ) : null}
+      {against ? (
+        <span className={`block font-medium ${against.kind === 'straddles' ? 'text-wait' : against.kind === 'clears' ? 'text-ink' : 'text-bad'}`} data-testid="verdict-need" data-kind={against.kind}>
+          {against.text}
         </span>
       ) : null}
     </p>

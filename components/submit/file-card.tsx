@@ -7,6 +7,10 @@ import { DerivedNumbers } from './derived-numbers';
 import { ReaderControls } from './reader-controls';
 import type { PreviewResult, ReaderOptions } from './preview-api';
 
+
+/** A file's own measurement conditions in a set measured at several temperatures or in s and p light. */
+export type FileConditions = { temperatureC?: string; polarization?: '' | 'unpolarized' | 's' | 'p' };
+
 export type FileProblem = { message: string; lines: { line?: number; message: string }[] };
 
 export type PreviewState =
@@ -46,6 +50,10 @@ export function FileCard(props: {
   aoi: string;
   aoiError?: string;
   onAoi: (v: string) => void;
+  /** This file's own temperature and polarisation, asked in a set of several files. */
+  conditions?: FileConditions;
+  conditionErrors?: { temperatureC?: string; polarization?: string };
+  onConditions?: (c: FileConditions) => void;
   preview: PreviewState | undefined;
   options: ReaderOptions;
   onOptions: (o: ReaderOptions) => void;
@@ -91,6 +99,8 @@ export function FileCard(props: {
         {props.aoiError ? <p id={`${idp}-aoi-error`} role="alert" className="w-full text-sm text-bad">{props.aoiError}</p> : null}
       </div>
 
+      {props.total > 1 && props.onConditions ? <FileConditionsFields idp={idp} value={props.conditions ?? {}} errors={props.conditionErrors ?? {}} onChange={props.onConditions} /> : null}
+
       {props.serverProblem ? <ProblemBox problem={props.serverProblem} title="The server refused this file" /> : null}
       {p?.state === 'error' ? <ProblemBox problem={p.problem} title={p.status === 413 ? 'This file is too large' : 'This file could not be read'} /> : null}
 
@@ -117,5 +127,43 @@ export function FileCard(props: {
         </div>
       ) : null}
     </article>
+  );
+}
+
+/**
+ * A set's file-by-file conditions: its measurement temperature (a set at several
+ * temperatures fits dCWL/dT) and its polarisation (s and p files give separate
+ * effective indices). Empty fields take the method's values below.
+ */
+function FileConditionsFields({ idp, value, errors, onChange }: { idp: string; value: FileConditions; errors: { temperatureC?: string; polarization?: string }; onChange: (c: FileConditions) => void }) {
+  const described = (key: 'temperatureC' | 'polarization') => `${idp}-conditions-help${errors[key] ? ` ${idp}-${key}-error` : ''}`;
+  return (
+    <div className="flex flex-wrap items-end gap-3" data-testid="file-conditions">
+      <div className="w-40">
+        <label htmlFor={`${idp}-temp`} className="block text-sm font-medium">Temperature</label>
+        <div className="flex">
+          <input id={`${idp}-temp`} type="number" step="any" min={-60} max={80} inputMode="decimal" value={value.temperatureC ?? ''}
+            onChange={(e) => onChange({ ...value, temperatureC: e.target.value })}
+            aria-invalid={!!errors.temperatureC} aria-describedby={described('temperatureC')}
+            className={`${inputClass} figures rounded-r-none`} data-testid="file-temp-input" />
+          <span className="flex items-center rounded-r-card border border-l-0 border-rule px-2 text-sm text-muted">°C</span>
+        </div>
+      </div>
+      <div className="w-40">
+        <label htmlFor={`${idp}-pol`} className="block text-sm font-medium">Polarisation</label>
+        <select id={`${idp}-pol`} value={value.polarization ?? ''} onChange={(e) => onChange({ ...value, polarization: e.target.value as FileConditions['polarization'] })}
+          aria-invalid={!!errors.polarization} aria-describedby={described('polarization')} className={inputClass} data-testid="file-pol-input">
+          <option value="">as the method</option>
+          <option value="unpolarized">unpolarised</option>
+          <option value="s">s</option>
+          <option value="p">p</option>
+        </select>
+      </div>
+      <p id={`${idp}-conditions-help`} className="w-full min-w-0 text-xs text-muted sm:w-auto sm:flex-1">
+        Only where this file differs from the method below: files of one unit at two or more temperatures give its own dCWL/dT; s and p files, each at two or more angles, give separate s and p effective indices.
+      </p>
+      {errors.temperatureC ? <p id={`${idp}-temperatureC-error`} role="alert" className="w-full text-sm text-bad">{errors.temperatureC}</p> : null}
+      {errors.polarization ? <p id={`${idp}-polarization-error`} role="alert" className="w-full text-sm text-bad">{errors.polarization}</p> : null}
+    </div>
   );
 }

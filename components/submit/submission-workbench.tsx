@@ -8,7 +8,7 @@ import { submissionMetadataSchema, type SubmissionMetadata } from '@/lib/schemas
 import { buttonClass, inputClass } from '@/components/forms/field';
 import { api, NO_ANSWER, type ApiFailure } from '@/lib/api-client';
 import { clearDraft, loadDraft, saveDraft } from './draft';
-import { FileCard, type FileProblem, type PreviewState } from './file-card';
+import { FileCard, type FileConditions, type FileProblem, type PreviewState } from './file-card';
 import { MetadataFields, asNumber, type MetadataForm } from './metadata-fields';
 import { NeffPanel } from './neff-panel';
 import { PassbandChart } from './passband-chart';
@@ -16,8 +16,8 @@ import { fileFailure, type PreviewMetadata, type ReaderOptions } from './preview
 import { UploadDashboard, UploadRefused, useSubmissionUppy, type UploadBody } from './uploader';
 
 type Added = { id: string; name: string; size: number; data: Blob };
-type FileMeta = { name: string; aoiDeg?: number; reader?: ReaderOptions };
-type Draft = { values: Partial<MetadataForm>; aoi: Record<string, string>; reader: Record<string, ReaderOptions> };
+type FileMeta = { name: string; aoiDeg?: number; reader?: ReaderOptions; temperatureC?: number; polarization?: 'unpolarized' | 's' | 'p' };
+type Draft = { values: Partial<MetadataForm>; aoi: Record<string, string>; reader: Record<string, ReaderOptions>; conditions?: Record<string, FileConditions> };
 
 export type WorkbenchMode =
   | { kind: 'new' }
@@ -35,7 +35,13 @@ function compose(values: MetadataForm, files: FileMeta[]): MetadataForm {
   const first = files[0]?.aoiDeg;
   return {
     ...values,
-    files: files.map((f) => ({ name: f.name, aoiDeg: f.aoiDeg as number, ...(f.reader && Object.keys(f.reader).length ? { reader: f.reader } : {}) })),
+    files: files.map((f) => ({
+      name: f.name,
+      aoiDeg: f.aoiDeg as number,
+      ...(f.reader && Object.keys(f.reader).length ? { reader: f.reader } : {}),
+      ...(f.temperatureC !== undefined ? { temperatureC: f.temperatureC } : {}),
+      ...(f.polarization ? { polarization: f.polarization } : {}),
+    })),
     method: { ...values.method, aoiDeg: first as number },
   };
 }
@@ -57,6 +63,7 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
   const [draft] = useState(() => loadDraft<Draft>(draftKey));
   const [aoi, setAoi] = useState<Record<string, string>>(() => draft?.aoi ?? {});
   const [reader, setReader] = useState<Record<string, ReaderOptions>>(() => draft?.reader ?? {});
+  const [conditions, setConditions] = useState<Record<string, FileConditions>>(() => draft?.conditions ?? {});
   const [previews, setPreviews] = useState<Record<string, PreviewState>>({});
   const [serverProblems, setServerProblems] = useState<Record<string, FileProblem>>({});
   const [summary, setSummary] = useState<string>();
@@ -67,8 +74,14 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
   const filesMeta = useMemo<FileMeta[]>(() => {
     // kept files keep their reader settings; their AOIs can be corrected here
     if (files.length === 0 && revise) return mode.currentFiles.map((f) => ({ ...f, aoiDeg: aoi[f.name] !== undefined ? (asNumber(aoi[f.name]) as number | undefined) : f.aoiDeg }));
-    return files.map((f) => ({ name: f.name, aoiDeg: asNumber(aoi[f.name] ?? '') as number | undefined, reader: reader[f.name] }));
-  }, [files, aoi, reader, revise, mode]);
+    return files.map((f) => ({
+      name: f.name,
+      aoiDeg: asNumber(aoi[f.name] ?? '') as number | undefined,
+      reader: reader[f.name],
+      temperatureC: asNumber(conditions[f.name]?.temperatureC ?? '') as number | undefined,
+      polarization: conditions[f.name]?.polarization || undefined,
+    }));
+  }, [files, aoi, reader, conditions, revise, mode]);
   const filesRef = useRef(filesMeta);
   useEffect(() => {
     filesRef.current = filesMeta;
@@ -87,10 +100,10 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
 
   // Keep the draft up to date with every keystroke.
   useEffect(() => {
-    const save = () => saveDraft(draftKey, { values: form.getValues(), aoi, reader } satisfies Draft);
+    const save = () => saveDraft(draftKey, { values: form.getValues(), aoi, reader, conditions } satisfies Draft);
     save();
     return form.subscribe({ formState: { values: true }, callback: save });
-  }, [form, aoi, reader, draftKey]);
+  }, [form, aoi, reader, conditions, draftKey]);
 
   // Mirror Uppy's file list.
   useEffect(() => {
@@ -300,6 +313,10 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
     const fileErr = (errors.files as unknown as { aoiDeg?: { message?: string } }[] | undefined)?.[i]?.aoiDeg?.message;
     return fileErr ?? (i === 0 ? errors.method?.aoiDeg?.message : undefined);
   };
+  const conditionErrors = (i: number) => {
+    const e = (errors.files as unknown as { temperatureC?: { message?: string }; polarization?: { message?: string } }[] | undefined)?.[i];
+    return { temperatureC: e?.temperatureC?.message, polarization: e?.polarization?.message };
+  };
   const filesNote = 'Text files only (.csv, .tsv, .txt, .dat, .asc) · up to 5 MB and 200 000 rows each · up to 20 files; several files = one filter measured at several angles';
 
   return (
@@ -353,6 +370,12 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
                 setAoi((a) => ({ ...a, [f.name]: v }));
                 editFile(f.name);
                 if (errors.files || errors.method?.aoiDeg) form.clearErrors(['files', 'method.aoiDeg']);
+              }}
+              conditions={conditions[f.name] ?? {}}
+              conditionErrors={conditionErrors(i)}
+              onConditions={(c) => {
+                setConditions((all) => ({ ...all, [f.name]: c }));
+                if (errors.files) form.clearErrors(['files']);
               }}
               preview={previews[f.id]}
               options={reader[f.name] ?? {}}

@@ -40,6 +40,9 @@ export class Curve extends Model<InferAttributes<Curve>, InferCreationAttributes
   declare blockingOd: number | null;
   declare lineTransmission: Record<string, number>;
   declare nEff: number | null;
+  /** s and p effective indices of a set measured in polarised light (migration 0011); both or neither. */
+  declare nEffS: CreationOptional<number | null>;
+  declare nEffP: CreationOptional<number | null>;
   /** dCWL/dT fitted from the unit measured at several temperatures (migration 0006). */
   declare tempCoeffNmPerC: CreationOptional<number | null>;
   declare verifiedAt: Date | null;
@@ -84,6 +87,8 @@ export class Curve extends Model<InferAttributes<Curve>, InferCreationAttributes
         blockingOd: DataTypes.DOUBLE,
         lineTransmission: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         nEff: DataTypes.DOUBLE,
+        nEffS: { type: DataTypes.DOUBLE, field: 'n_eff_s' },
+        nEffP: { type: DataTypes.DOUBLE, field: 'n_eff_p' },
         tempCoeffNmPerC: { type: DataTypes.DOUBLE, field: 'temp_coeff_nm_per_c' },
         verifiedAt: DataTypes.DATE,
         createdAt: DataTypes.DATE,

@@ -12,6 +12,7 @@ import type { Actor } from '@/lib/auth/actor';
 import { findLine } from '@/lib/engine/lines';
 import type { CurvePoints } from '@/lib/engine/types';
 import { unitSpread, type UnitSpread } from '@/lib/engine/spread';
+import { oneCurvePerUnit, UNIT_ATTRIBUTES } from './units';
 import { loadReadableCurve, readableWhere } from './points';
 
 export function parseCurveId(raw: string): number {
@@ -44,6 +45,8 @@ export interface CurveDetail {
     effectiveBandwidthNm: number | null;
     blockingOd: number | null;
     nEff: number | null;
+    /** s and p effective indices of a set measured in polarised light (docs/model.md §Polarised sets). */
+    nEffPolarised: { s: number; p: number } | null;
     /** dCWL/dT fitted from the unit's curves at several temperatures, nm/°C. */
     tempCoeffNmPerC: number | null;
     pointCount: number;
@@ -111,7 +114,7 @@ async function detailOf(actor: Actor | null, curve: Curve, origin: string): Prom
       ? C.findAll({ where: { setKey: curve.setKey, revision: curve.revision, ...readableWhere(actor) }, attributes: ['id', 'aoiDeg', 'cwlNm', 'fwhmNm'], order: [['aoiDeg', 'ASC']] })
       : Promise.resolve([]),
     // off-normal measurements are shifted by their angle, so the spread compares normal-incidence units only
-    C.findAll({ where: { label: curve.label, status: 'verified', aoiDeg: 0 }, attributes: ['id', 'cwlNm', 'fwhmNm'], order: [['id', 'ASC']], limit: 500 }),
+    C.findAll({ where: { label: curve.label, status: 'verified', aoiDeg: 0 }, attributes: ['id', 'cwlNm', 'fwhmNm', ...UNIT_ATTRIBUTES], order: [['id', 'ASC']], limit: 500 }).then(oneCurvePerUnit),
     curve.submissionId
       ? Review.findAll({ where: { submissionId: curve.submissionId, isPublic: true }, include: [{ model: User, as: 'author', attributes: ['name'] }], order: [['createdAt', 'ASC']] })
       : Promise.resolve([]),
@@ -150,6 +153,7 @@ async function detailOf(actor: Actor | null, curve: Curve, origin: string): Prom
       effectiveBandwidthNm: curve.effectiveBandwidthNm,
       blockingOd: curve.blockingOd,
       nEff: curve.nEff,
+      nEffPolarised: curve.nEffS != null && curve.nEffP != null ? { s: curve.nEffS, p: curve.nEffP } : null,
       tempCoeffNmPerC: curve.tempCoeffNmPerC ?? null,
       pointCount: curve.pointCount,
       lineTransmission: Object.entries(lt)

@@ -6,6 +6,7 @@ import { buildPupil } from '@/lib/engine/pupil';
 import type { OddsQuery } from '@/lib/schemas/odds';
 import { defaultNEff } from './fitness-grid';
 import { curvePointsByIds } from './points';
+import { oneCurvePerUnit, UNIT_ATTRIBUTES } from './units';
 
 /** At most this many units of one label are read (the curve page's unit spread reads as many). */
 const MAX_UNITS = 500;
@@ -40,7 +41,7 @@ export async function labelOdds(q: OddsQuery): Promise<OddsAnswer> {
   if (hit && Date.now() - hit.at < TTL_MS) return hit.value;
 
   const { Curve } = db();
-  const found = await Curve.findAll({ where: { label: q.label, status: 'verified', aoiDeg: 0 }, attributes: ['id', 'label'], order: [['id', 'ASC']], limit: MAX_UNITS });
+  const found = oneCurvePerUnit(await Curve.findAll({ where: { label: q.label, status: 'verified', aoiDeg: 0 }, attributes: ['id', 'label', ...UNIT_ATTRIBUTES], order: [['id', 'ASC']], limit: MAX_UNITS }));
   const byId = await curvePointsByIds(found.map((c) => c.id));
   const rows = found.flatMap((c) => {
     const u = byId.get(c.id);

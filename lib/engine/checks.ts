@@ -35,7 +35,8 @@ export interface CheckInput {
   /** AOI of this file when it belongs to a set (else metadata.method.aoiDeg). */
   aoiDeg?: number;
   /** Every curve of a multi-angle set, for the set checks (codes starting with "set"). */
-  set?: { aoiDeg: number; metrics: Metrics }[];
+  /** The files of a set; `tempC` is a file's own measurement temperature (a multi-temperature set). */
+  set?: { aoiDeg: number; tempC?: number; metrics: Metrics }[];
 }
 
 /** Tolerances. The CWL and FWHM ones are the brief's; the others are common practice. */
@@ -163,13 +164,18 @@ export function runChecks(input: CheckInput): Check[] {
   return checks;
 }
 
-function setChecks(set: { aoiDeg: number; metrics: Metrics }[]): Check[] {
+function setChecks(set: { aoiDeg: number; tempC?: number; metrics: Metrics }[]): Check[] {
   const out: Check[] = [];
   const usable = set.filter((s) => s.metrics.cwlNm !== null);
   if (usable.length < set.length) {
     out.push({ code: 'set-cwl', level: 'warn', message: `${set.length - usable.length} curve(s) of the set have no CWL and are left out of the effective-index fit.` });
   }
   const angles = new Set(usable.map((s) => s.aoiDeg));
+  if (angles.size < 2 && new Set(usable.map((s) => s.tempC).filter((t) => t !== undefined)).size >= 2) {
+    // one angle, several temperatures: a temperature set, which fits dCWL/dT instead (lib/engine/temperature.ts)
+    out.push({ code: 'set-angles', level: 'info', message: 'The set is at one angle and several temperatures: it gives dCWL/dT rather than an effective index.' });
+    return out;
+  }
   if (angles.size < 2) {
     out.push({ code: 'set-angles', level: 'warn', message: 'The set needs CWLs at two or more different AOIs to fit an effective index.' });
     return out;

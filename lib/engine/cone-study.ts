@@ -110,6 +110,12 @@ function trapezoid(x: ArrayLike<number>, y: ArrayLike<number>): number {
   return s;
 }
 
+/** The s and p indices moved with n_eff inside its uncertainty (both by the same step). */
+function movedPolarised(sp: ConeModelInput['nEffPolarised'], step: number): ConeModelInput['nEffPolarised'] {
+  if (!sp || step === 0) return sp;
+  return { s: Math.min(4, Math.max(1, sp.s + step)), p: Math.min(4, Math.max(1, sp.p + step)) };
+}
+
 export function runConeModel(input: ConeModelInput): ConeModelResult {
   validate(input);
   const warnings: string[] = [];
@@ -119,6 +125,7 @@ export function runConeModel(input: ConeModelInput): ConeModelResult {
   const pupil = buildPupil(input.optic);
   const params = {
     nEff: input.nEff,
+    nEffPolarised: input.nEffPolarised,
     measuredAoiDeg: input.measuredAoiDeg,
     preShiftNm: input.preShiftNm,
     tempCoeffNmPerC: input.tempCoeffNmPerC,
@@ -195,7 +202,7 @@ export function runConeModel(input: ConeModelInput): ConeModelResult {
       let hi = -Infinity;
       for (const d of deltas) {
         for (const n of indices) {
-          const t = lineThroughput(c, pupil, line.wavelengthNm, { ...params, nEff: n, preShiftNm: (input.preShiftNm ?? 0) + d }).throughput;
+          const t = lineThroughput(c, pupil, line.wavelengthNm, { ...params, nEff: n, nEffPolarised: movedPolarised(input.nEffPolarised, n - input.nEff), preShiftNm: (input.preShiftNm ?? 0) + d }).throughput;
           lo = Math.min(lo, t);
           hi = Math.max(hi, t);
         }
@@ -209,7 +216,7 @@ export function runConeModel(input: ConeModelInput): ConeModelResult {
       let hi = best.nm + u;
       for (const n of indices) {
         if (n === input.nEff) continue;
-        const b = bestPreShift(c, pupil, primary.wavelengthNm, { ...params, nEff: n });
+        const b = bestPreShift(c, pupil, primary.wavelengthNm, { ...params, nEff: n, nEffPolarised: movedPolarised(input.nEffPolarised, n - input.nEff) });
         if (b) {
           lo = Math.min(lo, b.nm - u);
           hi = Math.max(hi, b.nm + u);

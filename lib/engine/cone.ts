@@ -34,6 +34,12 @@ export function validateShift(p: ShiftParams): InputDetail[] {
   if (p.measuredAoiDeg !== undefined && !inRange(p.measuredAoiDeg, measuredAoiDeg)) {
     d.push({ field: 'measuredAoiDeg', message: `the measurement AOI must be between ${measuredAoiDeg[0]} and ${measuredAoiDeg[1]} degrees` });
   }
+  if (p.nEffPolarised !== undefined) {
+    for (const pol of ['s', 'p'] as const) {
+      const v = p.nEffPolarised?.[pol];
+      if (!num(v) || !inRange(v!, nEff)) d.push({ field: `nEffPolarised.${pol}`, message: `the ${pol} effective index must be between ${nEff[0].toFixed(1)} and ${nEff[1].toFixed(1)}` });
+    }
+  }
   for (const f of ['preShiftNm', 'tempCoeffNmPerC', 'tempC', 'refTempC'] as const) {
     if (p[f] !== undefined && !num(p[f])) d.push({ field: f, message: `${f} must be a finite number` });
   }
@@ -106,6 +112,45 @@ export function coneKernel(pupil: Pupil, nEff: number): ConeKernel {
     c1[k] = b;
   }
   return { g, weights: pupil.weights, c0, c1 };
+}
+
+/**
+ * The kernels the cone averages over. Unpolarised light is half s and half p;
+ * with one n_eff both halves move alike, one kernel. A set measured in
+ * polarised light gives each its own index (docs/model.md §Polarised sets):
+ *   τ = ½·τ(n_eff,s) + ½·τ(n_eff,p).
+ */
+export function coneKernels(pupil: Pupil, p: ShiftParams): { kernel: ConeKernel; weight: number }[] {
+  if (!p.nEffPolarised) return [{ kernel: coneKernel(pupil, p.nEff), weight: 1 }];
+  return [
+    { kernel: coneKernel(pupil, p.nEffPolarised.s), weight: 0.5 },
+    { kernel: coneKernel(pupil, p.nEffPolarised.p), weight: 0.5 },
+  ];
+}
+
+/** coneSweep over each kernel, weighted and summed; a point is outside when any kernel needed the curve beyond its range. */
+function sweepKernels(
+  c: PreparedCurve,
+  kernels: { kernel: ConeKernel; weight: number }[],
+  A: ArrayLike<number>,
+  B: ArrayLike<number>,
+  out: Float64Array,
+  outside?: Uint8Array,
+): void {
+  if (kernels.length === 1 && kernels[0].weight === 1) {
+    coneSweep(c, kernels[0].kernel, A, B, out, outside);
+    return;
+  }
+  const part = new Float64Array(out.length);
+  const partOut = outside ? new Uint8Array(out.length) : undefined;
+  out.fill(0);
+  for (const { kernel, weight } of kernels) {
+    coneSweep(c, kernel, A, B, part, partOut);
+    for (let i = 0; i < out.length; i++) {
+      out[i] += weight * part[i];
+      if (outside && partOut![i]) outside[i] = 1;
+    }
+  }
 }
 
 /** g = 1/s at each pupil bin edge for this n_eff. */
@@ -211,12 +256,12 @@ export function lineThroughput(
   }
   const c = prepareCurve(points);
   const { sM, shift } = shiftFrame(params);
-  const kernel = coneKernel(pupil, params.nEff);
+  const kernels = coneKernels(pupil, params);
   const out = new Float64Array(1);
   const outside = new Uint8Array(1);
   const A = sM * lambdaNm;
   const B = -sM * shift;
-  coneSweep(c, kernel, [A], [B], out, outside);
+  sweepKernels(c, kernels, [A], [B], out, outside);
   const xc = A + B;
   return {
     throughput: out[0],
@@ -245,8 +290,9 @@ export function coneCurve(
   assertShift(params);
   const c = prepareCurve(points);
   const { sM, shift } = shiftFrame(params);
-  const kernel = coneKernel(pupil, params.nEff);
-  const g = kernel.g;
+  const kernels = coneKernels(pupil, params);
+  // the default grid keeps samples whose whole cone is measured: the lowest index reaches furthest
+  const g = kernels.reduce((w, k) => (k.kernel.g[k.kernel.g.length - 1] > w.g[w.g.length - 1] ? k.kernel : w), kernels[0].kernel).g;
   const K = pupil.weights.length;
   let grid: Float64Array;
   if (wavelengthGrid) {
@@ -277,7 +323,7 @@ export function coneCurve(
   for (let i = 0; i < m; i++) A[i] = sM * grid[order[i]];
   const tau = new Float64Array(m);
   const outside = new Uint8Array(m);
-  coneSweep(c, kernel, A, B, tau, outside);
+  sweepKernels(c, kernels, A, B, tau, outside);
   const transmission = new Array<number>(m);
   let covered = true;
   for (let i = 0; i < m; i++) {
@@ -329,7 +375,7 @@ export function bestPreShift(
   }
   const { sM } = shiftFrame(params);
   const tempShift = temperatureShiftNm(params);
-  const kernel = coneKernel(pupil, params.nEff);
+  const kernels = coneKernels(pupil, params);
   const A0 = sM * lambdaNm;
 
   // Δ descending ⇒ x rising at every edge, as the sweep needs.
@@ -339,7 +385,7 @@ export function bestPreShift(
     const B = new Float64Array(m);
     for (let i = 0; i < m; i++) B[i] = -sM * (deltas[i] + tempShift);
     const out = new Float64Array(m);
-    coneSweep(c, kernel, A, B, out);
+    sweepKernels(c, kernels, A, B, out);
     return out;
   };
   const evalOne = (d: number) => evalMany(Float64Array.of(d))[0];

@@ -81,3 +81,31 @@ export function fitEffectiveIndex(measurements: AngleCwl[]): NeffFit {
   });
   return { nEff, cwl0Nm, rmsResidualNm: Math.sqrt(ss / n), points };
 }
+
+/**
+ * Separate s and p effective indices from a set measured in polarised light
+ * (docs/model.md §Polarised sets). Off normal incidence a thin-film passband
+ * splits: s and p light each follow λ(θ) = λ0·sqrt(1 − sin²θ/n_eff,pol²) with an
+ * index of their own. Each polarisation is fitted as above from its own curves;
+ * a curve at normal incidence (where s and p coincide) counts for both.
+ * Returns null unless s and p each have curves at two or more angles.
+ */
+export type MeasuredPolarisation = 's' | 'p' | 'unpolarized';
+
+export interface PolarisedFit {
+  s: NeffFit;
+  p: NeffFit;
+}
+
+/** Below this AOI a curve counts as normal incidence, where s and p are the same light. */
+const NORMAL_AOI_DEG = 0.5;
+
+export function fitPolarisedIndices(measurements: (AngleCwl & { polarization?: MeasuredPolarisation })[]): PolarisedFit | null {
+  const of = (pol: 's' | 'p') => measurements.filter((m) => m.polarization === pol || m.aoiDeg < NORMAL_AOI_DEG);
+  const s = of('s');
+  const p = of('p');
+  const angles = (l: AngleCwl[]) => new Set(l.map((m) => m.aoiDeg)).size;
+  if (!measurements.some((m) => m.polarization === 's') || !measurements.some((m) => m.polarization === 'p')) return null;
+  if (angles(s) < 2 || angles(p) < 2) return null;
+  return { s: fitEffectiveIndex(s), p: fitEffectiveIndex(p) };
+}

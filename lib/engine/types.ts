@@ -68,6 +68,8 @@ export interface AngleBin {
 /** How the design passband is moved before the cone acts on it (docs/model.md §Angle shift and §Pre-shift). */
 export interface ShiftParams {
   nEff: number;
+  /** Separate s and p indices of a set measured in polarised light; the cone then averages the two (docs/model.md §Polarised sets). */
+  nEffPolarised?: { s: number; p: number };
   measuredAoiDeg?: number;
   preShiftNm?: number;
   tempCoeffNmPerC?: number;

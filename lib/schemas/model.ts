@@ -44,6 +44,8 @@ export const coneRequestSchema = z
     points: pointsSchema.optional(),
     optic: opticSchema,
     nEff: nEffSchema,
+    // a set measured in polarised light: the cone averages s and p with their own indices (docs/model.md §Polarised sets)
+    nEffPolarised: z.object({ s: nEffSchema, p: nEffSchema }).strict().optional(),
     measuredAoiDeg: z.number().min(L.measuredAoiDeg[0]).max(L.measuredAoiDeg[1]).optional(),
     preShiftNm: z.number().min(L.preShiftNm[0]).max(L.preShiftNm[1]).optional(),
     tempCoeffNmPerC: z.number().min(L.tempCoeffNmPerC[0]).max(L.tempCoeffNmPerC[1]).optional(),

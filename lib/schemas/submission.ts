@@ -48,7 +48,11 @@ export const submissionMetadataSchema = z.object({
   licence: z.enum(LICENCES).default('CC-BY-4.0'),
   method: methodSchema,
   // `reader` carries the overrides the contributor chose in the live preview, so the stored curve is the one they saw.
-  files: z.array(z.object({ name: z.string().min(1).max(255), aoiDeg: aoi(), reader: readerOptionsSchema.optional(), temperatureC: z.number().min(-60).max(80).optional() })).max(20).optional(),
+  files: z.array(z.object({ name: z.string().min(1).max(255), aoiDeg: aoi(), reader: readerOptionsSchema.optional(),
+    // a multi-temperature set: each file's own measurement temperature (dCWL/dT is fitted from them)
+    temperatureC: z.number({ error: 'temperature must be a number of °C' }).min(-60, 'temperature below −60 °C is outside what we model').max(80, 'temperature above 80 °C is outside what we model').optional(),
+    // a polarised set: each file's polarisation (s and p indices are fitted from them)
+    polarization: z.enum(POLARIZATIONS, { error: 'polarization must be unpolarized, s or p' }).optional() })).max(20).optional(),
 });
 
 export type SubmissionMetadata = z.output<typeof submissionMetadataSchema>;

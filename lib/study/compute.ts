@@ -36,6 +36,17 @@ export function nEffFor(curve: StudyCurve, s: StudySettings): { value: number; s
   return { value: DEFAULT_N_EFF, source: 'default' };
 }
 
+/**
+ * The s and p indices the cone averages (docs/model.md §Polarised sets): the
+ * curve's own, fitted from a set measured in polarised light, unless the user
+ * typed one n_eff, which then stands for both.
+ */
+export function nEffPolarisedFor(curve: StudyCurve, s: StudySettings): { s: number; p: number } | null {
+  if (s.nEff != null || !curve.nEffPolarised) return null;
+  const { s: ns, p: np } = curve.nEffPolarised;
+  return ns >= 1 && ns <= 4 && np >= 1 && np <= 4 ? { s: ns, p: np } : null;
+}
+
 export function refTempFor(curve: StudyCurve, s: StudySettings): { value: number; source: 'typed' | 'measured' | 'default' } {
   if (s.refTempC != null) return { value: s.refTempC, source: 'typed' };
   if (curve.tempC != null) return { value: curve.tempC, source: 'measured' };
@@ -68,6 +79,8 @@ export function coneRequestBody(curve: StudyCurve, s: StudySettings, fieldAngleD
     ...(s.optic.mapping !== 'tangent' ? { mapping: s.optic.mapping } : {}),
   };
   body.nEff = nEffFor(curve, s).value;
+  const sp = nEffPolarisedFor(curve, s);
+  if (sp) body.nEffPolarised = sp;
   if (s.preShiftNm !== 0) body.preShiftNm = s.preShiftNm;
   const k = s.tempC != null ? tempCoeffFor(curve, s) : null;
   if (s.tempC != null && k) {
@@ -109,6 +122,7 @@ function prepare(points: CurvePoints): PreparedCurve {
 function shiftParams(input: ConeModelInput, preShiftNm = input.preShiftNm): ShiftParams {
   return {
     nEff: input.nEff,
+    nEffPolarised: input.nEffPolarised,
     measuredAoiDeg: input.measuredAoiDeg,
     preShiftNm,
     tempCoeffNmPerC: input.tempCoeffNmPerC,
@@ -221,6 +235,7 @@ export function studyCurve(curve: StudyCurve, s: StudySettings): CurveStudy {
     curve,
     nEff: n.value,
     nEffSource: n.source,
+    nEffPolarised: input.nEffPolarised ?? null,
     refTempC: ref.value,
     refTempSource: ref.source,
     totalShiftNm,

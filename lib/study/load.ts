@@ -72,6 +72,7 @@ export async function getStudyCurves(actor: Actor | null, ids: number[]): Promis
       lines: c.lines,
       aoiDeg: c.aoiDeg,
       nEff: c.nEff,
+      nEffPolarised: c.nEffS != null && c.nEffP != null ? { s: c.nEffS, p: c.nEffP } : null,
       tempC: typeof t === 'number' && Number.isFinite(t) ? t : null,
       coating: ((c.method as { coating?: unknown })?.coating as StudyCurve['coating']) ?? null,
       tempCoeffNmPerC: c.tempCoeffNmPerC ?? null,

@@ -19,6 +19,8 @@ export interface StudyCurve {
   aoiDeg: number;
   /** The effective index fitted from the curve's set, when it belongs to one. */
   nEff: number | null;
+  /** s and p indices of a set measured in polarised light: the cone averages the two (docs/model.md §Polarised sets). */
+  nEffPolarised?: { s: number; p: number } | null;
   /** The temperature recorded with the measurement, °C. */
   tempC: number | null;
   /** Declared coating (sets the default dCWL/dT); absent for pasted curves. */
@@ -58,6 +60,8 @@ export interface StudySettings {
   refTempC: number | null;
   line: TargetLine;
   radialVelocityKms: number;
+  /** The line throughput the user needs (0–1), or null; the verdict says when the error bar straddles it. */
+  neededThroughput?: number | null;
 }
 
 export interface Series {
@@ -72,6 +76,8 @@ export interface CurveStudy {
   curve: StudyCurve;
   nEff: number;
   nEffSource: NeffSource;
+  /** The s and p indices the cone used, when the curve's set was measured in polarised light and no n_eff was typed. */
+  nEffPolarised: { s: number; p: number } | null;
   refTempC: number;
   refTempSource: 'typed' | 'measured' | 'default';
   /** Pre-shift plus temperature shift, nm toward the red. */

@@ -13,6 +13,7 @@
  *   t k tref   temperature °C, coefficient nm/°C, reference temperature °C
  *   line    a catalogue line id (Ha, OIII, …) or any wavelength in nm
  *   v       source radial velocity, km/s
+ *   need    the line throughput the user needs, % (the verdict says when the error bar straddles it)
  */
 
 import { findLine, LINES } from '@/lib/engine/lines';
@@ -37,10 +38,11 @@ export interface StudyQuery {
   tref: string;
   line: string;
   v: string;
+  need: string;
 }
 
-export type QueryField = 'f' | 'obs' | 'field' | 'n' | 'shift' | 't' | 'k' | 'tref' | 'line' | 'v';
-const TEXT_FIELDS: QueryField[] = ['f', 'obs', 'field', 'n', 'shift', 't', 'k', 'tref', 'line', 'v'];
+export type QueryField = 'f' | 'obs' | 'field' | 'n' | 'shift' | 't' | 'k' | 'tref' | 'line' | 'v' | 'need';
+const TEXT_FIELDS: QueryField[] = ['f', 'obs', 'field', 'n', 'shift', 't', 'k', 'tref', 'line', 'v', 'need'];
 
 type ParamSource = URLSearchParams | Record<string, string | string[] | undefined>;
 
@@ -55,7 +57,7 @@ function first(src: ParamSource, key: string): string {
 }
 
 export function emptyQuery(): StudyQuery {
-  return { curveIds: [], opticId: null, f: '', obs: '', field: '', map: 'tangent', n: '', shift: '', t: '', k: '', tref: '', line: '', v: '' };
+  return { curveIds: [], opticId: null, f: '', obs: '', field: '', map: 'tangent', n: '', shift: '', t: '', k: '', tref: '', line: '', v: '', need: '' };
 }
 
 export function parseStudyQuery(src: ParamSource): StudyQuery {
@@ -85,7 +87,7 @@ export function studySearch(q: StudyQuery): string {
     for (const key of ['f', 'obs', 'field'] as const) if (q[key] !== '') p.set(key, q[key]);
   } else if (q.opticId != null) p.set('optic', String(q.opticId));
   if (q.map === 'sine') p.set('map', 'sine');
-  for (const key of ['n', 'shift', 't', 'k', 'tref', 'line', 'v'] as const) if (q[key] !== '') p.set(key, q[key]);
+  for (const key of ['n', 'shift', 't', 'k', 'tref', 'line', 'v', 'need'] as const) if (q[key] !== '') p.set(key, q[key]);
   // Commas in the curve list read better unescaped, and are legal in a query.
   return p.toString().replace(/%2C/g, ',');
 }
@@ -108,6 +110,7 @@ export const STUDY_LIMITS = {
   k: { min: L.tempCoeffNmPerC[0], max: L.tempCoeffNmPerC[1], label: 'Temperature coefficient', unit: ' nm/°C' },
   tref: { min: -80, max: 100, label: 'Reference temperature', unit: ' °C' },
   v: { min: -29_979, max: 29_979, label: 'Radial velocity', unit: ' km/s' },
+  need: { min: 1, max: 100, label: 'Throughput you need', unit: ' %' },
 } as const;
 
 type Limited = keyof typeof STUDY_LIMITS;
@@ -229,6 +232,7 @@ export function resolveSettings(q: StudyQuery, optics: readonly OpticChoice[], f
     refTempC: num('tref'),
     line: lineRead.value ?? fallbackLine,
     radialVelocityKms: num('v') ?? 0,
+    neededThroughput: ((n) => (n == null ? null : n / 100))(num('need')),
   };
   return { settings, errors, opticSource };
 }

@@ -147,7 +147,18 @@ export function verdictFor(study: CurveStudy, optic: StudyOptic, preShiftNm: num
       : study.nEffSource === 'typed'
         ? 'as typed'
         : `a default: this curve has no fitted value; ${NEFF_RANGES_TEXT}`;
-  items.push({ key: 'neff', label: 'Effective index', value: formatRatio(study.nEff), raw: study.nEff, text: `${nText}.` });
+  const sp = study.nEffPolarised;
+  items.push(
+    sp
+      ? {
+          key: 'neff',
+          label: 'Effective index',
+          value: `s ${formatRatio(sp.s)} · p ${formatRatio(sp.p)}`,
+          raw: study.nEff,
+          text: `fitted separately for s and p light from this unit's polarised curves; the cone averages the two halves of unpolarised light, each with its own index (${formatRatio(study.nEff)} for both together).`,
+        }
+      : { key: 'neff', label: 'Effective index', value: formatRatio(study.nEff), raw: study.nEff, text: `${nText}.` },
+  );
 
   if (study.totalShiftNm !== 0) {
     const temp = study.totalShiftNm - preShiftNm;

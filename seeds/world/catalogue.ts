@@ -3,6 +3,7 @@
  * labs, example optics and the filter catalogue the curves are generated from.
  * Every name here is made up (demo).
  */
+import type { Coating } from '@/lib/engine/temperature';
 import type { DemoLab, DemoMaker, DemoOptic, DemoPerson, Instrument, LineId } from './types';
 
 export const DEMO_NOTICE = 'Demo data: invented makers, places, people and generated curves.';
@@ -161,6 +162,10 @@ export interface UnitSpec {
   wideScan?: boolean;
   /** measurement AOI for a single curve (default 0) */
   aoiDeg?: number;
+  /** measured at normal incidence at several temperatures (TEMP_SET_C) in a heated holder: the set fits dCWL/dT */
+  tempSet?: boolean;
+  /** measured at POLARISED_SET_AOIS_DEG in s and in p light: the set fits separate s and p indices */
+  polarisedSet?: boolean;
   /** override the declared resolution (nm) */
   resolutionNm?: number;
   /** moderator note for a curve sent back (changes_requested) */
@@ -186,6 +191,8 @@ export interface FilterModel {
   cavities: number;
   sizesMm: number[];
   coating: string;
+  /** The coating type declared on upload (sets the default dCWL/dT): mostly hard, a few soft, some not known. */
+  coatingType: Coating;
   serialPrefix: string;
   units: UnitSpec[];
 }
@@ -203,6 +210,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [31.75, 50.8],
     coating: 'hard oxide multilayer, ion-assisted',
+    coatingType: 'hard',
     serialPrefix: 'VQN',
     units: [{}, { angleSet: true, contributorEmail: 'contributor@bandcone.test' }, {}, {}, {}],
   },
@@ -215,6 +223,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [31.75, 50.8],
     coating: 'hard oxide multilayer, ion-assisted',
+    coatingType: 'hard',
     serialPrefix: 'VQN',
     units: [
       ...plain(4),
@@ -235,6 +244,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [31.75, 50.8],
     coating: 'hard oxide multilayer, ion-assisted',
+    coatingType: 'hard',
     serialPrefix: 'VQN',
     units: plain(3),
   },
@@ -248,6 +258,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [36, 50.8],
     coating: 'hard oxide multilayer, ion-assisted',
+    coatingType: 'hard',
     serialPrefix: 'VQR',
     units: plain(3),
   },
@@ -261,6 +272,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 2,
     sizesMm: [31.75, 50.8],
     coating: 'evaporated dielectric stack with a cemented cover',
+    coatingType: 'soft',
     serialPrefix: 'ORQ',
     units: [
       {},
@@ -284,6 +296,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 2,
     sizesMm: [31.75, 50.8],
     coating: 'evaporated dielectric stack with a cemented cover',
+    coatingType: 'soft',
     serialPrefix: 'ORQ',
     units: plain(2),
   },
@@ -296,8 +309,9 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 2,
     sizesMm: [31.75, 50.8],
     coating: 'evaporated dielectric stack with a cemented cover',
+    coatingType: 'soft',
     serialPrefix: 'ORQ',
-    units: [{}, {}, { angleSet: true, contributorEmail: 'contributor2@bandcone.test' }, {}],
+    units: [{}, {}, { angleSet: true, contributorEmail: 'contributor2@bandcone.test' }, {}, { tempSet: true, contributorEmail: 'contributor2@bandcone.test' }],
   },
   // --- Maelkirk Optical
   {
@@ -309,6 +323,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [31.75, 36, 50.8],
     coating: 'sputtered oxide stack',
+    coatingType: 'hard',
     serialPrefix: 'MQT',
     units: plain(3),
   },
@@ -321,6 +336,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [31.75, 36, 50.8],
     coating: 'sputtered oxide stack',
+    coatingType: 'hard',
     serialPrefix: 'MQT',
     units: [{}, { cwlOffsetNm: -0.9, anomaly: 'unit CWL about 0.9 nm blue of the catalogue value' }, {}],
   },
@@ -333,6 +349,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [31.75, 36, 50.8],
     coating: 'sputtered oxide stack',
+    coatingType: 'hard',
     serialPrefix: 'MQT',
     units: [{ angleSet: true, contributorEmail: 'perrin.ashgrove-kell@bandcone.test' }, {}, {}],
   },
@@ -345,6 +362,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 2,
     sizesMm: [31.75, 50.8],
     coating: 'sputtered oxide stack, wide two-cavity design',
+    coatingType: 'hard',
     serialPrefix: 'MQW',
     units: [{}, { wideScan: true }],
   },
@@ -357,6 +375,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [31.75],
     coating: 'sputtered oxide stack',
+    coatingType: 'hard',
     serialPrefix: 'MQT',
     units: [{ status: 'submitted', contributorEmail: 'juno.halberstock@bandcone.test' }],
   },
@@ -373,6 +392,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 2,
     sizesMm: [31.75, 50.8],
     coating: 'dual-band dielectric coating',
+    coatingType: 'unknown',
     serialPrefix: 'YBV',
     units: [{}, { angleSet: true, contributorEmail: 'contributor@bandcone.test' }, { wideScan: true }, {}],
   },
@@ -388,6 +408,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 2,
     sizesMm: [31.75, 50.8],
     coating: 'dual-band dielectric coating',
+    coatingType: 'unknown',
     serialPrefix: 'YBV',
     units: [{}, { wideScan: true }, { status: 'submitted', contributorEmail: 'bexley.morrandt@bandcone.test' }],
   },
@@ -404,6 +425,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [50.8],
     coating: 'dual-band dielectric coating',
+    coatingType: 'unknown',
     serialPrefix: 'YBQ',
     units: plain(3),
   },
@@ -418,6 +440,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 4,
     sizesMm: [36, 50],
     coating: 'four-cavity hard-coated stack',
+    coatingType: 'hard',
     serialPrefix: 'TQH',
     units: [
       ...plain(3),
@@ -440,6 +463,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 4,
     sizesMm: [36, 50],
     coating: 'four-cavity hard-coated stack',
+    coatingType: 'hard',
     serialPrefix: 'TQH',
     units: plain(2),
   },
@@ -452,8 +476,9 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [36, 50],
     coating: 'three-cavity hard-coated stack',
+    coatingType: 'hard',
     serialPrefix: 'TQH',
-    units: [{}, { angleSet: true, contributorEmail: 'contributor2@bandcone.test' }, {}],
+    units: [{}, { angleSet: true, contributorEmail: 'contributor2@bandcone.test' }, {}, { polarisedSet: true, contributorEmail: 'contributor@bandcone.test' }],
   },
   // --- Ostrowen Glassworks (wide)
   {
@@ -465,6 +490,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 2,
     sizesMm: [31.75, 50.8],
     coating: 'wide two-cavity stack, multicoated back face',
+    coatingType: 'unknown',
     serialPrefix: 'OWQ',
     units: [
       { wideScan: true },
@@ -482,6 +508,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 2,
     sizesMm: [31.75, 50.8],
     coating: 'wide two-cavity stack, multicoated back face',
+    coatingType: 'unknown',
     serialPrefix: 'OWQ',
     units: [{}, { aoiDeg: 5 }],
   },
@@ -494,6 +521,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 2,
     sizesMm: [31.75],
     coating: 'wide two-cavity stack, multicoated back face',
+    coatingType: 'unknown',
     serialPrefix: 'OWQ',
     units: plain(1),
   },
@@ -508,8 +536,9 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [36, 50.8],
     coating: 'ion-beam sputtered stack, blackened edge',
+    coatingType: 'hard',
     serialPrefix: 'BQL',
-    units: [{}, {}, { angleSet: true, contributorEmail: 'perrin.ashgrove-kell@bandcone.test' }, { aoiDeg: 7 }],
+    units: [{}, {}, { angleSet: true, contributorEmail: 'perrin.ashgrove-kell@bandcone.test' }, { aoiDeg: 7 }, { tempSet: true, contributorEmail: 'perrin.ashgrove-kell@bandcone.test' }],
   },
   {
     id: 'brisquenne-leewing-oiii-4-5',
@@ -521,6 +550,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [36, 50.8],
     coating: 'ion-beam sputtered stack, blackened edge',
+    coatingType: 'hard',
     serialPrefix: 'BQL',
     units: plain(3),
   },
@@ -534,6 +564,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 3,
     sizesMm: [36, 50.8],
     coating: 'ion-beam sputtered stack, blackened edge',
+    coatingType: 'hard',
     serialPrefix: 'BQL',
     units: [{}, {}, { status: 'submitted', contributorEmail: 'nadia.quillfeather@bandcone.test' }],
   },
@@ -546,6 +577,7 @@ export const FILTER_MODELS: readonly FilterModel[] = [
     cavities: 2,
     sizesMm: [31.75],
     coating: 'ion-beam sputtered stack',
+    coatingType: 'hard',
     serialPrefix: 'BQX',
     units: plain(1),
   },
@@ -569,3 +601,13 @@ export const INSTRUMENT_STEPS: Readonly<Record<Instrument, number[]>> = {
 };
 
 export const SET_AOIS_DEG = [0, 4, 8, 12, 16] as const;
+
+/** Temperatures of a multi-temperature set, °C. */
+export const TEMP_SET_C = [5, 15, 25, 35] as const;
+/** Angles of a polarised set; 0° is measured once (s and p coincide there), the others in s and in p. */
+export const POLARISED_SET_AOIS_DEG = [0, 8, 16] as const;
+/**
+ * The demo world's true dCWL/dT by coating, nm/°C: inside the ranges of
+ * lib/engine/temperature.ts, but not its defaults, so a fitted set shows its own figure.
+ */
+export const TRUE_TEMP_COEFF: Record<Coating, number> = { hard: 0.0031, soft: 0.0162, unknown: 0.006 };

@@ -14,6 +14,9 @@ import {
   OPTICS,
   PEOPLE,
   SET_AOIS_DEG,
+  TEMP_SET_C,
+  POLARISED_SET_AOIS_DEG,
+  TRUE_TEMP_COEFF,
   SUBSTRATES,
   type FilterModel,
   type UnitSpec,
@@ -24,6 +27,7 @@ import type {
   CurvePoints,
   DemoCurve,
   DemoCurveSet,
+  Polarization,
   DemoLab,
   DemoMethod,
   DemoReview,
@@ -183,6 +187,12 @@ function reviewNote(rng: Rng, curve: DemoCurve): string {
     const off = measured - nominal;
     return `Verified as measured: this unit sits ${Math.abs(off).toFixed(1)} nm ${off > 0 ? 'red' : 'blue'} of the catalogue CWL, a property of the unit rather than an error.`;
   }
+  if (curve.trueTempCoeffNmPerC !== undefined) {
+    return 'Temperature series verified: the passband moves redward with temperature by about what the declared coating leads one to expect.';
+  }
+  if (curve.trueNEffPolarised) {
+    return 'Polarised angle series verified: s and p light split off normal incidence as a thin-film cavity should.';
+  }
   if (curve.setKey) {
     return 'Angle series verified: the passband moves blueward from 0° to 16° as the effective-index model expects.';
   }
@@ -251,9 +261,20 @@ export function buildDemoWorld(seed: number = DEFAULT_SEED): DemoWorld {
       const serial = serialFor(rng, model.serialPrefix, serials);
       const sizeMm = rng.pick(model.sizesMm);
       const licence = rng.chance(0.8) ? 'CC-BY-4.0' : 'CC0-1.0';
-      const aois: number[] = spec.angleSet ? [...SET_AOIS_DEG] : [spec.aoiDeg ?? 0];
+      // a polarised set measures 0° once and every other angle in s and in p; a temperature set stays at 0°
+      const aois: number[] = spec.angleSet
+        ? [...SET_AOIS_DEG]
+        : spec.polarisedSet
+          ? POLARISED_SET_AOIS_DEG.flatMap((a) => (a === 0 ? [a] : [a, a]))
+          : spec.tempSet
+            ? TEMP_SET_C.map(() => 0)
+            : [spec.aoiDeg ?? 0];
+      const polAt = (step: number): Polarization | undefined => (spec.polarisedSet ? (aois[step] === 0 ? 'unpolarized' : step % 2 === 1 ? 's' : 'p') : undefined);
+      // truth of a polarised set: s and p indices either side of the unit's (high-index spacer: n_eff,p < n_eff,s)
+      const nEffPolarised = spec.polarisedSet ? { s: roundTo(nEff + 0.03, 3), p: roundTo(nEff - 0.03, 3) } : undefined;
+      const tempCoeff = TRUE_TEMP_COEFF[model.coatingType];
       const maxAoi = Math.max(...aois);
-      const sMin = angleScale(maxAoi, nEff);
+      const sMin = angleScale(maxAoi, Math.min(nEff, nEffPolarised?.p ?? nEff));
 
       const lab = chooseLab(rng, contributorEmail, aois.length > 1 || maxAoi > 0);
       const instrument: Instrument = aois.length > 1 ? (lab.instruments.includes('spectrophotometer') ? 'spectrophotometer' : lab.instruments[0]) : rng.pick(lab.instruments);
@@ -274,9 +295,11 @@ export function buildDemoWorld(seed: number = DEFAULT_SEED): DemoWorld {
           ? randomDay(rng, EPOCH, LAST_VERIFIED_MEASURE)
           : randomDay(rng, FIRST_QUEUE_MEASURE, LAST_QUEUE_MEASURE);
 
-      const setKey = spec.angleSet ? `${unitKey}-set` : undefined;
+      const setKey = spec.angleSet ? `${unitKey}-set` : spec.tempSet ? `${unitKey}-tset` : spec.polarisedSet ? `${unitKey}-pset` : undefined;
       const unitExtra: string[] = [];
       if (spec.angleSet) unitExtra.push('measured on a rotation stage in a collimated beam at 0, 4, 8, 12 and 16°');
+      else if (spec.tempSet) unitExtra.push(`measured at normal incidence in a heated holder at ${TEMP_SET_C.join(', ')} °C`);
+      else if (spec.polarisedSet) unitExtra.push('measured on a rotation stage through a polariser, in s and in p light at 8 and 16°');
       else if (maxAoi > 0) unitExtra.push(`measured tilted at ${maxAoi}° in the holder`);
       const notes = curveNotes(rng, model, unit, unitExtra);
       const polarization = aois.length > 1 || maxAoi > 0 ? 'unpolarized' : rng.pick(['unpolarized', 'unpolarized', undefined] as const);
@@ -289,16 +312,29 @@ export function buildDemoWorld(seed: number = DEFAULT_SEED): DemoWorld {
 
       const curveKeys: string[] = [];
       aois.forEach((aoiDeg, step) => {
-        const key = spec.angleSet ? `${unitKey}-aoi${String(aoiDeg).padStart(2, '0')}` : unitKey;
-        const s = angleScale(aoiDeg, nEff);
+        const pol = polAt(step);
+        const tempAt = spec.tempSet ? TEMP_SET_C[step] : temperatureC;
+        const key = spec.angleSet
+          ? `${unitKey}-aoi${String(aoiDeg).padStart(2, '0')}`
+          : spec.tempSet
+            ? `${unitKey}-t${String(tempAt).padStart(2, '0')}`
+            : spec.polarisedSet
+              ? `${unitKey}-aoi${String(aoiDeg).padStart(2, '0')}${aoiDeg === 0 ? '' : `-${pol}`}`
+              : unitKey;
+        // this take's truth: its own light's index, and the passband moved by the temperature (from 20 °C)
+        const takeNEff = nEffPolarised && (pol === 's' || pol === 'p') ? nEffPolarised[pol] : nEff;
+        const warm = spec.tempSet ? tempCoeff * (TEMP_SET_C[step] - 20) : 0;
+        const takeUnit: UnitTruth = { ...unit, nEff: takeNEff, bands: warm ? bands.map((b) => ({ ...b, cwlNm: roundTo(b.cwlNm + warm, 4) })) : bands };
+        const s = angleScale(aoiDeg, takeNEff);
         const method: DemoMethod = {
           instrument,
           resolutionNm,
           beam: converging ? 'converging' : 'collimated',
           ...(converging ? { beamFNumber: rng.pick([15, 18, 20]) } : {}),
           aoiDeg,
-          ...(temperatureC !== undefined ? { temperatureC } : {}),
-          ...(polarization ? { polarization } : {}),
+          ...(tempAt !== undefined ? { temperatureC: tempAt } : {}),
+          ...(pol ? { polarization: pol } : polarization ? { polarization } : {}),
+          coating: model.coatingType,
           measuredOn: isoDay(dayMs(measuredOn) + measuredDays(step) * DAY_MS),
           lab: lab.name,
         };
@@ -317,12 +353,14 @@ export function buildDemoWorld(seed: number = DEFAULT_SEED): DemoWorld {
           contributorEmail,
           method,
           ...(setKey ? { setKey, trueNEff: nEff } : {}),
+          ...(spec.tempSet ? { trueTempCoeffNmPerC: tempCoeff } : {}),
+          ...(nEffPolarised ? { trueNEffPolarised: nEffPolarised } : {}),
           status,
-          points: measure(rng, unit, aoiDeg, sampling, noiseSigma),
+          points: measure(rng, takeUnit, aoiDeg, sampling, noiseSigma),
           generated: {
             bands: bands.map((b) => ({ ...b })),
-            bandsAtAoi: bandsAt(bands, s),
-            nEff,
+            bandsAtAoi: bandsAt(takeUnit.bands, s),
+            nEff: takeNEff,
             rippleAmplitude: unit.rippleAmplitude,
             ripplePeriodNm: unit.ripplePeriodNm,
             blockingFloor: unit.blockingFloor,
@@ -345,7 +383,7 @@ export function buildDemoWorld(seed: number = DEFAULT_SEED): DemoWorld {
         }
       });
 
-      if (setKey) {
+      if (setKey && spec.angleSet) {
         sets.push({
           key: setKey,
           label: model.label,

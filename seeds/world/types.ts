@@ -74,6 +74,8 @@ export interface DemoMethod {
   aoiDeg: number;
   temperatureC?: number;
   polarization?: Polarization;
+  /** declared coating type: hard (sputtered), soft (evaporated) or unknown */
+  coating?: import('@/lib/engine/temperature').Coating;
   /** ISO date, YYYY-MM-DD */
   measuredOn: string;
   lab: string;
@@ -134,6 +136,10 @@ export interface DemoCurve {
   setKey?: string;
   /** the effective index used to generate the set (sets only) */
   trueNEff?: number;
+  /** the dCWL/dT used to generate a multi-temperature set, nm/°C */
+  trueTempCoeffNmPerC?: number;
+  /** the s and p indices used to generate a polarised set */
+  trueNEffPolarised?: { s: number; p: number };
   status: CurveStatus;
   points: CurvePoints;
   generated: GeneratedTruth;

@@ -112,6 +112,12 @@ describe('automatic checks', () => {
     it('warns when the set has only one distinct angle', () => {
       expect(byCode(runChecks({ metrics: good, set: [at(5), at(5)] }), 'set-angles')[0].level).toBe('warn');
     });
+    it('a set at one angle and several temperatures is a temperature set, not a fault', () => {
+      const c = byCode(runChecks({ metrics: good, set: [{ ...at(0), tempC: 5 }, { ...at(0), tempC: 35 }] }), 'set-angles')[0];
+      expect(c.level).toBe('info');
+      expect(c.message).toContain('dCWL/dT');
+      expect(byCode(runChecks({ metrics: good, set: [{ ...at(0), tempC: 20 }, { ...at(0), tempC: 20 }] }), 'set-angles')[0].level).toBe('warn');
+    });
     it('every set check code starts with "set"', () => {
       const codes = runChecks({ metrics: good, set: [at(0), at(10)] }).filter((c) => !runChecks({ metrics: good }).some((d) => d.code === c.code)).map((c) => c.code);
       expect(codes.length).toBeGreaterThan(0);

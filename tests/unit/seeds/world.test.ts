@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
+import { defaultTempCoeff, fitTempCoeff } from '@/lib/engine/temperature';
+import { fitPolarisedIndices } from '@/lib/engine/neff';
 import {
   DEMO_NOTICE,
   LINE_AIR_NM,
@@ -460,6 +462,51 @@ describe('set reviews', () => {
       expect(new Set(rs.map((r) => `${r.moderatorEmail} ${r.reviewedOn}`)).size).toBe(1);
       const last = set.curveKeys.map((k) => byKey.get(k)!.method.measuredOn).sort().at(-1)!;
       expect(rs[0].reviewedOn > last).toBe(true);
+    }
+  });
+});
+
+// ---------------------------------------------------------------- coatings, temperature and polarised sets
+describe('coatings, a multi-temperature set and a polarised set', () => {
+  it('declares a coating on every curve: mostly hard, a few soft, some unknown', () => {
+    const count = { hard: 0, soft: 0, unknown: 0 };
+    for (const c of world.curves) count[c.method.coating!]++;
+    expect(count.hard).toBeGreaterThan(count.soft + count.unknown);
+    expect(count.soft).toBeGreaterThan(0);
+    expect(count.unknown).toBeGreaterThan(0);
+  });
+
+  it('moves a temperature set by its true dCWL/dT, and the least-squares fit recovers it (temperature.ts)', () => {
+    const tsets = new Map<string, DemoCurve[]>();
+    for (const c of world.curves) if (c.trueTempCoeffNmPerC !== undefined) tsets.set(c.setKey!, [...(tsets.get(c.setKey!) ?? []), c]);
+    expect(tsets.size).toBeGreaterThanOrEqual(2);
+    const coatings = new Set<string>();
+    for (const [key, curves] of tsets) {
+      expect(new Set(curves.map((c) => c.method.temperatureC)).size).toBe(curves.length);
+      expect(curves.every((c) => c.method.aoiDeg === 0)).toBe(true);
+      const fit = fitTempCoeff(curves.map((c) => ({ tempC: c.method.temperatureC!, cwlNm: halfMax(c.points).cwlNm })));
+      const truth = curves[0].trueTempCoeffNmPerC!;
+      // within 15 % of the truth, and inside the coating's published range (lib/engine/temperature.ts)
+      expect(Math.abs(fit.nmPerC - truth) / truth, key).toBeLessThan(0.15);
+      const d = defaultTempCoeff(curves[0].method.coating)!;
+      expect(fit.nmPerC).toBeGreaterThanOrEqual(d.range[0]);
+      expect(fit.nmPerC).toBeLessThanOrEqual(d.range[1]);
+      coatings.add(curves[0].method.coating!);
+    }
+    expect([...coatings].sort()).toEqual(['hard', 'soft']);
+  });
+
+  it('splits a polarised set into s and p curves whose separate fits recover the true indices (neff.ts)', () => {
+    const psets = new Map<string, DemoCurve[]>();
+    for (const c of world.curves) if (c.trueNEffPolarised) psets.set(c.setKey!, [...(psets.get(c.setKey!) ?? []), c]);
+    expect(psets.size).toBeGreaterThanOrEqual(1);
+    for (const curves of psets.values()) {
+      expect(curves.map((c) => c.method.polarization).sort()).toEqual(['p', 'p', 's', 's', 'unpolarized']);
+      const fit = fitPolarisedIndices(curves.map((c) => ({ aoiDeg: c.method.aoiDeg, cwlNm: halfMax(c.points).cwlNm, polarization: c.method.polarization })))!;
+      const truth = curves[0].trueNEffPolarised!;
+      expect(Math.abs(fit.s.nEff - truth.s)).toBeLessThan(0.03);
+      expect(Math.abs(fit.p.nEff - truth.p)).toBeLessThan(0.03);
+      expect(fit.p.nEff).toBeLessThan(fit.s.nEff);
     }
   });
 });

@@ -209,3 +209,38 @@ describe('error bars in the study', () => {
     expect(straddledMarks([0.81, 0.9])).toEqual([]);
   });
 });
+
+describe('the throughput the user needs against the error bar', () => {
+  it('clears, falls short or straddles, and the link carries it as a percentage', async () => {
+    const { needVerdict } = await import('@/lib/study/error-bar');
+    const { parseStudyQuery, resolveSettings, studySearch } = await import('@/lib/study/url-state');
+    expect(needVerdict([0.72, 0.78], 0.7).kind).toBe('clears');
+    expect(needVerdict([0.72, 0.78], 0.8).kind).toBe('short');
+    const st = needVerdict([0.78, 0.72], 0.75);
+    expect(st.kind).toBe('straddles');
+    expect(st.text).toContain('75 %');
+    const q = parseStudyQuery(new URLSearchParams('curve=3&need=75'));
+    expect(studySearch(q)).toBe('curve=3&need=75');
+    expect(resolveSettings(q, [], { id: 'Ha' }).settings.neededThroughput).toBeCloseTo(0.75, 12);
+    const bad = resolveSettings(parseStudyQuery(new URLSearchParams('need=150')), [], { id: 'Ha' });
+    expect(bad.errors.need).toBe('Throughput you need must be between 1 and 100 %');
+    expect(bad.settings.neededThroughput).toBeNull();
+  });
+});
+
+describe('a polarised set in the study (docs/model.md §Polarised sets)', () => {
+  it('sends the curve’s s and p indices unless an n_eff is typed, and the verdict shows both', () => {
+    const c = { ...flatTop(HA, 3), nEff: 1.9, nEffPolarised: { s: 1.95, p: 1.85 } };
+    const fitted = settings({ nEff: null });
+    expect(coneRequestBody(c, fitted).nEffPolarised).toEqual({ s: 1.95, p: 1.85 });
+    expect(coneRequestBody(c, settings({ nEff: 2 })).nEffPolarised).toBeUndefined();
+    const st = studyCurve(c, fitted);
+    expect(st.nEffPolarised).toEqual({ s: 1.95, p: 1.85 });
+    const neff = verdictFor(st, fitted.optic, 0).items.find((i) => i.key === 'neff')!;
+    expect(neff.value).toBe('s 1.95 · p 1.85');
+    // the cone is the mean of the two halves, so it sits between the single-index answers
+    const s = studyCurve({ ...c, nEffPolarised: null, nEff: 1.95 }, fitted).onAxis.lines[0].throughput;
+    const p = studyCurve({ ...c, nEffPolarised: null, nEff: 1.85 }, fitted).onAxis.lines[0].throughput;
+    expect(st.onAxis.lines[0].throughput).toBeCloseTo(0.5 * (s + p), 9);
+  });
+});

@@ -65,6 +65,26 @@ const LICENCE_LINKS: Record<string, string> = {
   'CC0-1.0': 'https://creativecommons.org/publicdomain/zero/1.0/',
 };
 
+/**
+ * The measuring-beam correction offered (lib/engine/quality.ts): a curve measured in a
+ * converging beam sits to the blue by the bias the engine estimates, so the study
+ * opens with the curve moved back by that much, as a pre-shift toward the red.
+ */
+function BeamCorrection({ curveId, items }: { curveId: number; items: ReturnType<typeof assessCurveQuality> }) {
+  const beam = items.find((i) => i.code === 'beam' && i.correctionNm !== undefined && Math.abs(i.correctionNm) >= 0.01);
+  if (!beam) return null;
+  const nm = Number(beam.correctionNm!.toFixed(2));
+  return (
+    <p className="mt-2 text-sm" data-testid="beam-correction">
+      <Link href={`/study?curve=${curveId}&shift=${nm}`} className="text-accent underline underline-offset-4">
+        Study it with the beam corrected ({nm > 0 ? '+' : ''}
+        {nm.toFixed(2)} nm)
+      </Link>
+      <span className="block text-xs text-muted">The study then applies the correction as a pre-shift toward the red; to first order only.</span>
+    </p>
+  );
+}
+
 function methodRows(d: CurveDetail) {
   const m = d.method as Record<string, string | number | undefined>;
   const rows: [string, string][] = [
@@ -171,6 +191,11 @@ export default async function CurvePage({ params }: Props) {
             <Row label="Effective bandwidth">{formatNm(d.derived.effectiveBandwidthNm)}</Row>
             <Row label="Blocking (outside CWL ± 2·FWHM)">{d.derived.blockingOd === null ? '—' : `OD ${fixed(d.derived.blockingOd, 1)}`}</Row>
             <Row label="Effective index">{d.derived.nEff === null ? 'not measured (single angle)' : `${formatRatio(d.derived.nEff)} (fitted)`}</Row>
+            {d.derived.nEffPolarised ? (
+              <Row label="Effective index, s and p light" testId="derived-neff-sp">
+                {`s ${formatRatio(d.derived.nEffPolarised.s)} · p ${formatRatio(d.derived.nEffPolarised.p)} (fitted from the polarised curves; the study averages the two)`}
+              </Row>
+            ) : null}
             <Row label="Samples">{d.derived.pointCount.toLocaleString('en-US')}</Row>
           </dl>
           <h3 className="mt-3 text-xs font-semibold text-muted">Transmission at catalogued lines</h3>
@@ -224,6 +249,7 @@ export default async function CurvePage({ params }: Props) {
           <div data-testid="curve-quality">
             <QualityList items={quality} />
           </div>
+          <BeamCorrection curveId={d.id} items={quality} />
           <p className="mt-2 text-xs text-muted">Judged from the declared method; a default stands in for anything not declared and says so.</p>
         </Card>
 
