@@ -1,6 +1,6 @@
 // The security headers of every answer, in one place: next.config.ts sends the static ones,
 // proxy.ts the per-request Content-Security-Policy of pages.
-import { bucketOrigin } from '@/lib/storage/config';
+import { bucketOrigin } from '../storage/config';
 
 /**
  * Scripts run only when they carry this request's nonce (Next adds it to its own scripts and
