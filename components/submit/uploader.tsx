@@ -72,18 +72,31 @@ export function useSubmissionUppy(presignEndpoint = '/api/uploads/presign'): Sub
   return uppy;
 }
 
-/** Sends the submission once every file is in the file store: metadata and the staged uploadIds, as JSON. */
+/**
+ * Sends the submission once every file is in the file store: metadata and the staged uploadIds,
+ * as JSON. A lost connection or a gateway hiccup is tried again (three tries, 1 s then 2 s apart);
+ * sending it twice cannot make two submissions, since the server takes each staged file once.
+ */
 export async function submitStaged(endpoint: string, uppy: SubmissionUppy, metadata: unknown): Promise<UploadBody> {
   const uploads = uppy.getFiles().map((f) => f.meta.uploadId).filter((id): id is string => !!id);
-  let res: Response;
-  try {
-    res = await fetch(endpoint, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ metadata, uploads }) });
-  } catch {
-    throw new UploadRefused(0, { error: 'network' });
+  for (let attempt = 1; ; attempt++) {
+    let res: Response | null = null;
+    try {
+      res = await fetch(endpoint, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ metadata, uploads }) });
+    } catch {
+      res = null;
+    }
+    const transient = res === null || res.status === 502 || res.status === 503 || res.status === 504;
+    if (transient && attempt < 3) {
+      await new Promise((r) => setTimeout(r, 1000 * attempt));
+      continue;
+    }
+    if (res === null) throw new UploadRefused(0, { error: 'network' });
+    const answer = res;
+    const body = await answer.json().catch(() => ({ error: `The server answered ${answer.status}.` }));
+    if (!answer.ok) throw new UploadRefused(answer.status, body);
+    return body as UploadBody;
   }
-  const body = await res.json().catch(() => ({ error: `The server answered ${res.status}.` }));
-  if (!res.ok) throw new UploadRefused(res.status, body);
-  return body as UploadBody;
 }
 
 export function UploadDashboard({ uppy, note }: { uppy: SubmissionUppy; note: string }) {
