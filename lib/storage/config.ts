@@ -16,7 +16,7 @@ export type StorageConfig = {
   forcePathStyle: boolean;
 };
 
-export function storageConfig(env: NodeJS.ProcessEnv = process.env): StorageConfig {
+export function storageConfig(env: Record<string, string | undefined> = process.env): StorageConfig {
   return {
     endpoint: (env.S3_ENDPOINT || `http://127.0.0.1:${env.BANDCONE_S3_PORT || LOCAL_S3_PORT}`).replace(/\/+$/, ''),
     bucket: env.S3_BUCKET || 'bandcone-raw',

@@ -60,19 +60,20 @@ export async function takeStagedFiles(userId: string, uploadIds: string[]): Prom
   const files: StagedFile[] = [];
   for (const id of uploadIds) {
     const stage = byId.get(id);
-    if (!stage) throw unprocessable(`Upload ${id} is not one of yours, or it waited too long and was swept; upload the file again.`, [{ field: 'uploads', message: `unknown upload ${id}` }]);
+    if (!stage) throw unprocessable(`Upload ${id} is not one of yours, or it waited too long and was swept; upload the file again.`);
     const got = await guarded(STORE_DOWN_UPLOAD, () => readCapped(stagingKey(id), MAX_FILE_BYTES));
     const name = stage.original_name;
     if (got === null) {
-      throw unprocessable(`${name} never arrived in the file store (its upload did not finish, or its signed address had expired); nothing was submitted. Send the file again.`, [{ field: 'uploads', message: `${name}: not uploaded` }]);
+      throw unprocessable(`${name}: never arrived in the file store (its upload did not finish, or its signed address had expired); nothing was submitted. Send the file again.`);
     }
     let problem: string | null = null;
-    if ('tooLarge' in got) problem = `${name} arrived larger than the 5 MB limit; nothing was submitted.`;
-    else if (got.bytes.length !== stage.size_bytes) problem = `${name} arrived as ${got.bytes.length} bytes, not the ${stage.size_bytes} announced; nothing was submitted. Send the file again.`;
-    else if (got.sha256 !== stage.sha256) problem = `${name} arrived different from the file announced (its SHA-256 does not match); nothing was submitted. Send the file again.`;
+    if ('tooLarge' in got) problem = `${name}: arrived larger than the 5 MB limit; nothing was submitted.`;
+    else if (got.bytes.length !== stage.size_bytes) problem = `${name}: arrived as ${got.bytes.length} bytes, not the ${stage.size_bytes} announced; nothing was submitted. Send the file again.`;
+    else if (got.sha256 !== stage.sha256) problem = `${name}: arrived different from the file announced (its SHA-256 does not match); nothing was submitted. Send the file again.`;
     if (problem || 'tooLarge' in got) {
       await dropStage(id);
-      throw unprocessable(problem as string, [{ field: 'uploads', message: problem as string }]);
+      // The sentence starts with the file's name, so the upload page shows it beside that file.
+      throw unprocessable(problem as string);
     }
     files.push({ name, bytes: got.bytes, mediaType: stage.media_type, uploadId: id });
   }

@@ -81,7 +81,7 @@ describe('browser uploads through presigned URLs', () => {
     const before = await submissionsOf();
     const res = await jsonPost(contributor, '/api/submissions', { metadata: metadataFor(), uploads: [p.uploadId] });
     expect(res.status).toBe(422);
-    expect((await json<{ error: string }>(res)).error).toMatch(/^swapped\.csv arrived different from the file announced \(its SHA-256 does not match\)/);
+    expect((await json<{ error: string }>(res)).error).toMatch(/^swapped\.csv: arrived different from the file announced \(its SHA-256 does not match\)/);
     expect(await submissionsOf()).toBe(before);
     expect(await exists(stagingKey(p.uploadId))).toBe(false);
     expect(await exists(rawKey(sha256(other)))).toBe(false);
@@ -98,7 +98,7 @@ describe('browser uploads through presigned URLs', () => {
     const res = await jsonPost(contributor, '/api/submissions', { metadata: metadataFor(), uploads: [p.uploadId] });
     expect(res.status).toBe(422);
     const { error } = await json<{ error: string }>(res);
-    if (putRes.status === 200) expect(error).toBe(`short.csv arrived as ${longer.length} bytes, not the ${bytes.length} announced; nothing was submitted. Send the file again.`);
+    if (putRes.status === 200) expect(error).toBe(`short.csv: arrived as ${longer.length} bytes, not the ${bytes.length} announced; nothing was submitted. Send the file again.`);
     else expect(error).toMatch(/never arrived/);
     expect(await submissionsOf()).toBe(before);
   });
@@ -109,7 +109,7 @@ describe('browser uploads through presigned URLs', () => {
     const before = await submissionsOf();
     const res = await jsonPost(contributor, '/api/submissions', { metadata: metadataFor(), uploads: [p.uploadId] });
     expect(res.status).toBe(422);
-    expect((await json<{ error: string }>(res)).error).toMatch(/^lost\.csv never arrived in the file store/);
+    expect((await json<{ error: string }>(res)).error).toMatch(/^lost\.csv: never arrived in the file store/);
     expect(await submissionsOf()).toBe(before);
   });
 
