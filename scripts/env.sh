@@ -188,6 +188,10 @@ prepare_database() {
 # under .data/. Setting S3_ENDPOINT (and S3_BUCKET, S3_REGION, S3_ACCESS_KEY_ID,
 # S3_SECRET_ACCESS_KEY) to a real service skips the fake; nothing else changes.
 
+# The SDK warns on every process that its releases after January 2027 need Node 22; ours are
+# pinned in package.json to releases that run on Node 20, so the warning only adds noise.
+export AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED=true
+
 # start_file_store PORT DIR [fresh] — the fake on 127.0.0.1:PORT unless one already answers
 # there; exports the S3_* variables the app, the scripts and the tests read.
 start_file_store() {
