@@ -2,7 +2,7 @@ import { PutObjectCommand, HeadBucketCommand } from '@aws-sdk/client-s3';
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '@/db/models';
-import { HttpError, unprocessable } from '@/lib/http/errors';
+import { HttpError, conflict, unprocessable } from '@/lib/http/errors';
 import { overLimit } from '@/lib/rate-limit';
 import { MAX_FILE_BYTES } from '@/lib/engine/reader/limits';
 import type { PresignInput } from '@/lib/schemas/upload';
@@ -90,10 +90,14 @@ export async function storeRawFiles(files: { sha256: string; bytes: Buffer; uplo
   });
 }
 
-/** In the submission's transaction: the stages it took are gone with it, or stay if it fails. */
+/**
+ * In the submission's transaction: the stages it took are gone with it, or stay if it fails.
+ * Two submissions naming the same upload at once cannot both take it: the second finds it gone.
+ */
 export async function forgetStages(uploadIds: string[], transaction: Transaction): Promise<void> {
   if (uploadIds.length === 0) return;
-  await db().sequelize.query(`DELETE FROM upload_stages WHERE id IN (:ids)`, { replacements: { ids: uploadIds }, transaction });
+  const gone = await db().sequelize.query<{ id: string }>(`DELETE FROM upload_stages WHERE id IN (:ids) RETURNING id`, { replacements: { ids: uploadIds }, transaction, type: QueryTypes.SELECT });
+  if (gone.length !== uploadIds.length) throw conflict('These files were just submitted by another request; nothing was submitted twice.');
 }
 
 /** After the commit: the staging copies are no longer needed. A failure is left to the sweep. */

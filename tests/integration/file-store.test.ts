@@ -70,6 +70,17 @@ describe('browser uploads through presigned URLs', () => {
     expect(again.status).toBe(422);
   });
 
+  it('two submissions naming the same upload at once make one submission', async () => {
+    const bytes = Buffer.from(singleCurve('twice.csv').text as string);
+    const p = await presign(bytes, { name: 'twice.csv' });
+    expect((await put(p.url, bytes)).status).toBe(200);
+    const before = await submissionsOf();
+    const statuses = (await Promise.all([0, 1].map(() => jsonPost(contributor, '/api/submissions', { metadata: metadataFor(), uploads: [p.uploadId] })))).map((r) => r.status).sort();
+    expect(statuses[0]).toBe(201);
+    expect([409, 422]).toContain(statuses[1]);
+    expect(await submissionsOf()).toBe(before + 1);
+  });
+
   it('a file that arrives different from its announced SHA-256 leaves no submission', async () => {
     const bytes = Buffer.from(singleCurve('swapped.csv').text as string);
     // Same length, one digit changed near the end.
