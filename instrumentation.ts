@@ -7,6 +7,11 @@ export async function register() {
   if (process.env.MAIL_WORKER !== '0') {
     import('@/lib/mail/worker').then((m) => m.startMailWorker()).catch((err) => console.error('mail worker did not start', err));
   }
+  // Files a browser staged in the file store and nobody submitted are dropped after a day
+  // (lib/storage/sweep.ts): a sweep shortly after start, then hourly.
+  if (process.env.STAGING_SWEEP !== '0') {
+    import('@/lib/storage/sweep').then((m) => m.startStagingSweeper()).catch((err) => console.error('staging sweeper did not start', err));
+  }
   if (process.env.BANDCONE_WARM_CATALOGUE === '0') return;
   // The in-process copy behind fitness searches takes about a second to read at 100 000 curves;
   // reading it now, in the background, spares the first visitor that wait. A failure here only

@@ -16,11 +16,14 @@ import { hasRole, type Actor } from '@/lib/auth/actor';
 export const MAX_FILES = 20;
 export { MAX_FILE_BYTES, MAX_ROWS };
 
-export type IncomingFile = { name: string; bytes: Buffer };
+/** A file to submit; `uploadId` when it came through the file store's staging area (lib/storage/uploads.ts). */
+export type IncomingFile = { name: string; bytes: Buffer; mediaType?: string; uploadId?: string };
 
 export type ParsedFile = {
   name: string;
   bytes: Buffer;
+  mediaType?: string;
+  uploadId?: string;
   sha256: string;
   aoiDeg: number;
   /** The file's own temperature in a multi-temperature set, else the method's. */
@@ -82,6 +85,8 @@ export function parseFiles(files: IncomingFile[], metadata: SubmissionMetadata):
     return {
       name: file.name,
       bytes: file.bytes,
+      mediaType: file.mediaType,
+      uploadId: file.uploadId,
       sha256: createHash('sha256').update(file.bytes).digest('hex'),
       aoiDeg: aoiFor(file, metadata, files.length),
       temperatureC: metadata.files?.find((f) => f.name === file.name)?.temperatureC ?? metadata.method.temperatureC,

@@ -7,6 +7,10 @@ import { parseJsonText } from '@/lib/http/body';
 import { hasRole, type Actor } from '@/lib/auth/actor';
 import { assess, parseFiles, type IncomingFile, type Intake } from './intake';
 import { notifyModeratorsOfSubmission } from './notify';
+import { forgetStages, rawFileBytes, removeStagedObjects, storeRawFiles } from '@/lib/storage/uploads';
+import { STORE_DOWN_UPLOAD } from '@/lib/storage/errors';
+
+const stagedIds = (intake: Intake) => intake.files.flatMap((f) => (f.uploadId ? [f.uploadId] : []));
 
 /** What POST /api/submissions and its revise route answer. */
 export type SubmissionAnswer = Awaited<ReturnType<typeof createSubmission>> | Awaited<ReturnType<typeof reviseSubmission>>;
@@ -24,7 +28,8 @@ async function insertCurves(submissionId: number, contributorId: string, revisio
   const ids: number[] = [];
   for (const f of intake.files) {
     const file = await SubmissionFile.create(
-      { submissionId, revision, originalName: f.name, sizeBytes: f.bytes.length, sha256: f.sha256, content: f.bytes, aoiDeg: f.aoiDeg },
+      // The bytes are in the file store already (storeRawFiles, before this transaction); the row names them by hash.
+      { submissionId, revision, originalName: f.name, sizeBytes: f.bytes.length, sha256: f.sha256, content: null, mediaType: f.mediaType ?? 'text/plain', aoiDeg: f.aoiDeg },
       { transaction },
     );
     const m = f.metrics;
@@ -46,6 +51,7 @@ async function insertCurves(submissionId: number, contributorId: string, revisio
     );
     ids.push(curve.id);
   }
+  await forgetStages(stagedIds(intake), transaction);
   return ids;
 }
 
@@ -61,6 +67,8 @@ export async function createSubmission(actor: Pick<Actor, 'id' | 'role'>, metada
     replaces = old.id;
     revision = old.revision + 1;
   }
+  // Raw files reach the file store before any row names them; if the store is away, a 503 and no rows.
+  await storeRawFiles(intake.files);
   const result = await sequelize.transaction(async (transaction) => {
     const submission = await Submission.create(
       {
@@ -76,6 +84,7 @@ export async function createSubmission(actor: Pick<Actor, 'id' | 'role'>, metada
     if (options.notify !== false) await notifyModeratorsOfSubmission(submission.id, metadata.label, revision, transaction);
     return { submission, curveIds };
   });
+  await removeStagedObjects(stagedIds(intake));
   return { id: result.submission.id, status: result.submission.status, checks: intake.checks, curveIds: result.curveIds, nEff: intake.nEff };
 }
 
@@ -92,11 +101,12 @@ export async function reviseSubmission(actor: Pick<Actor, 'id' | 'role'>, submis
   let incoming = files;
   if (incoming.length === 0) {
     const previous = await SubmissionFile.findAll({ where: { submissionId, revision: current.revision }, order: [['id', 'ASC']] });
-    incoming = previous.map((f) => ({ name: f.originalName, bytes: f.content }));
+    incoming = await Promise.all(previous.map(async (f) => ({ name: f.originalName, bytes: await rawFileBytes(f, STORE_DOWN_UPLOAD), mediaType: f.mediaType })));
     if (!metadata.files && previous.length > 1) metadata.files = previous.map((f) => ({ name: f.originalName, aoiDeg: f.aoiDeg }));
   }
   const intake = await assess(parseFiles(incoming, metadata), metadata, actor, submissionId);
   const revision = current.revision + 1;
+  await storeRawFiles(intake.files);
   const result = await sequelize.transaction(async (transaction) => {
     const locked = await Submission.findByPk(submissionId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!locked || locked.status !== 'changes_requested') throw conflict('This submission changed while you were revising it; reload and try again.');
@@ -110,5 +120,6 @@ export async function reviseSubmission(actor: Pick<Actor, 'id' | 'role'>, submis
     await notifyModeratorsOfSubmission(submissionId, metadata.label, revision, transaction);
     return { curveIds };
   });
+  await removeStagedObjects(stagedIds(intake));
   return { id: submissionId, status: 'submitted' as const, revision, checks: intake.checks, curveIds: result.curveIds, nEff: intake.nEff };
 }

@@ -1,8 +1,10 @@
 #!/usr/bin/env bash
 # Backs up the whole library into one folder: the database (pg_dump, custom format),
 # the database roles (pg_dumpall --roles-only; pg_dump leaves them out) and a fingerprint
-# of what it holds, for scripts/restore.sh to check against. Raw uploaded files live in the
-# database today (submission_files.content, beside their SHA-256), so the dump carries them.
+# of what it holds, for scripts/restore.sh to check against, then the raw uploaded files: they
+# live in the file store (S3_* variables; start.sh's local one by default) as raw/<sha256>, and
+# are copied into DEST/raw/ after the dump (scripts/bucket-backup.ts says why that order is safe).
+# Files not yet moved out of the database (before migration 0012) are in the dump itself.
 #
 #   scripts/backup.sh [DEST]      DEST defaults to .data/backups/<UTC time>
 #
@@ -34,11 +36,13 @@ printf '\\o %s\n\\i %s\n\\o\nSELECT %s;\n' "$DEST/fingerprint.txt" "$ROOT/script
 read -r done_line <&"${SNAP[0]}"
 [ "$done_line" = fingerprint-done ] || { log "the fingerprint failed: $done_line"; exit 1; }
 echo 'COMMIT;' >&"${SNAP[1]}"; exec {SNAP[1]}>&-; wait "$SNAP_PID" 2>/dev/null || true
+log "copying the file store's raw files"
+npx tsx scripts/bucket-backup.ts dump "$DEST" --database-url "$DATABASE_URL"
 {
   echo "created_at=$(date -u +%Y-%m-%dT%H:%M:%SZ)"
   echo "database=${DATABASE_URL##*/}"
-  echo "raw_files=in the database dump (submission_files.content)"
+  echo "raw_files=raw/ (the file store's raw/<sha256> objects, listed in objects.txt) and any still in the database dump"
 } > "$DEST/manifest.txt"
 ms=$(( ($(date +%s%N) - started) / 1000000 ))
 size=$(du -sh "$DEST" | cut -f1)
-log "backup in $DEST: $size, $(grep -c '^rows:' "$DEST/fingerprint.txt") tables, $((ms / 1000)).$(printf '%03d' $((ms % 1000))) s"
+log "backup in $DEST: $size, $(grep -c '^rows:' "$DEST/fingerprint.txt") tables, $(wc -l < "$DEST/objects.txt") raw files, $((ms / 1000)).$(printf '%03d' $((ms % 1000))) s"

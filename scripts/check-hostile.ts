@@ -11,6 +11,7 @@
 // The exit status is 1 when a target is missed.
 import { pidListeningOn, rssBytes } from './lib/proc';
 import { mulberry32 } from '../seeds/world/prng';
+import { signIn } from './lib/sign-in';
 
 type Args = { url: string; pid: number | null; email: string; password: string; concurrency: number; seed: number };
 
@@ -181,30 +182,6 @@ function hostileMetadata(rand: () => number): string {
 // ---------------------------------------------------------------- sending
 
 type Shot = { route: string; kind: string; status: number; ms: number; note?: string };
-
-async function signIn(url: string, email: string, password: string): Promise<string | null> {
-  const jar = new Map<string, string>();
-  const keep = (res: Response) => {
-    for (const line of res.headers.getSetCookie()) {
-      const [pair] = line.split(';');
-      const eq = pair.indexOf('=');
-      jar.set(pair.slice(0, eq).trim(), pair.slice(eq + 1));
-    }
-  };
-  const cookie = () => [...jar].map(([k, v]) => `${k}=${v}`).join('; ');
-  const csrf = await fetch(`${url}/api/auth/csrf`);
-  keep(csrf);
-  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-  const res = await fetch(`${url}/api/auth/callback/credentials`, {
-    method: 'POST',
-    redirect: 'manual',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: cookie(), origin: new URL(url).origin },
-    body: new URLSearchParams({ csrfToken, email, password, json: 'true' }),
-  });
-  keep(res);
-  const session = (await (await fetch(`${url}/api/auth/session`, { headers: { cookie: cookie() } })).json()) as { user?: unknown };
-  return session?.user ? cookie() : null;
-}
 
 async function main() {
   const args = parseArgs(process.argv.slice(2));

@@ -181,3 +181,41 @@ prepare_database() {
   if [ "$how" = if-empty ]; then npx tsx seeds/run.ts --if-empty; else npx tsx seeds/run.ts; fi
   grant_app_role "$name"
 }
+
+# ---------------------------------------------------------------- the file store (raw uploads)
+# Raw files live in an S3-compatible bucket (lib/storage/). Locally that is s3rver, a fake S3
+# from npm (a dev dependency, so ensure_node_modules installs it), on loopback with its objects
+# under .data/. Setting S3_ENDPOINT (and S3_BUCKET, S3_REGION, S3_ACCESS_KEY_ID,
+# S3_SECRET_ACCESS_KEY) to a real service skips the fake; nothing else changes.
+
+# The SDK warns on every process that its releases after January 2027 need Node 22; ours are
+# pinned in package.json to releases that run on Node 20, so the warning only adds noise.
+export AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED=true
+
+# start_file_store PORT DIR [fresh] — the fake on 127.0.0.1:PORT unless one already answers
+# there; exports the S3_* variables the app, the scripts and the tests read.
+start_file_store() {
+  local port="$1" dir="$2" fresh="${3:-}"
+  if [ -n "${S3_ENDPOINT:-}" ] && [ "$S3_ENDPOINT" != "http://127.0.0.1:$port" ]; then
+    log "file store: $S3_ENDPOINT (bucket ${S3_BUCKET:-bandcone-raw})"
+    return 0
+  fi
+  export BANDCONE_S3_PORT="$port" S3_ENDPOINT="http://127.0.0.1:$port" S3_BUCKET="${S3_BUCKET:-bandcone-raw}"
+  if curl -s -o /dev/null --max-time 2 "$S3_ENDPOINT/"; then
+    log "file store already running on $S3_ENDPOINT"
+    return 0
+  fi
+  [ "$fresh" = fresh ] && rm -rf "$dir"
+  log "starting the fake S3 file store on $S3_ENDPOINT (objects in ${dir#"$ROOT"/})"
+  start_bg "$ROOT/.data/s3-$port.log" npx tsx scripts/s3-local.ts --port "$port" --dir "$dir"
+  for _ in $(seq 60); do
+    curl -s -o /dev/null --max-time 2 "$S3_ENDPOINT/" && return 0
+    sleep 0.5
+  done
+  log "the file store did not start:"; tail -n 20 "$ROOT/.data/s3-$port.log"; return 1
+}
+
+# move_raw_files — raw files kept in the database before migration 0012 go to the file store.
+move_raw_files() {
+  npx tsx scripts/move-raw-files.ts
+}

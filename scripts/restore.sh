@@ -1,21 +1,26 @@
 #!/usr/bin/env bash
 # Restores a folder made by scripts/backup.sh into a FRESH PostgreSQL cluster and checks
-# that it holds exactly what was backed up (row counts, verified curves' points, raw files).
+# that it holds exactly what was backed up (row counts, verified curves' points, raw files),
+# then puts the backed-up raw files into the file store and checks every row has its bytes.
 #
-#   scripts/restore.sh BACKUP_DIR [--data DIR] [--port N] [--stop]
+#   scripts/restore.sh BACKUP_DIR [--data DIR] [--port N] [--bucket NAME] [--stop]
 #
 # --data  where the new cluster lives (default .data/pg-restore; must not exist yet)
 # --port  its port on 127.0.0.1 (default 54359)
+# --bucket the bucket to restore raw files into, on the file store the S3_* variables name
+#         (default S3_BUCKET, else bandcone-raw); made if missing, nothing in it overwritten
 # --stop  stop the new cluster after checking (tests); otherwise it keeps running and the
 #         script prints the DATABASE_URL to serve it with.
 source "$(dirname "$0")/env.sh"
 
-BACKUP="${1:?usage: scripts/restore.sh BACKUP_DIR [--data DIR] [--port N] [--stop]}"; shift
+BACKUP="${1:?usage: scripts/restore.sh BACKUP_DIR [--data DIR] [--port N] [--bucket NAME] [--stop]}"; shift
+BUCKET="${S3_BUCKET:-bandcone-raw}"
 DATA="$ROOT/.data/pg-restore"; PORT_RESTORE=54359; STOP_AFTER=""
 while [ $# -gt 0 ]; do
   case "$1" in
     --data) DATA="$2"; shift 2 ;;
     --port) PORT_RESTORE="$2"; shift 2 ;;
+    --bucket) BUCKET="$2"; shift 2 ;;
     --stop) STOP_AFTER=1; shift ;;
     *) echo "unknown option $1" >&2; exit 2 ;;
   esac
@@ -53,6 +58,12 @@ if ! diff -u "$BACKUP/fingerprint.txt" "$restored"; then
   log "the restored database does NOT match the backup (differences above)"; exit 1
 fi
 rm -f "$restored"
+if [ -f "$BACKUP/objects.txt" ]; then
+  log "restoring raw files into bucket $BUCKET"
+  if ! S3_BUCKET="$BUCKET" npx tsx scripts/bucket-backup.ts restore "$BACKUP" --database-url "$URL_BASE/$DB_NAME"; then
+    log "the restored file store does NOT match the backup (see above)"; exit 1
+  fi
+fi
 ms=$(( ($(date +%s%N) - started) / 1000000 ))
 log "restored and checked in $((ms / 1000)).$(printf '%03d' $((ms % 1000))) s: $(grep -c '^rows:' "$BACKUP/fingerprint.txt") tables, every count and checksum equal"
 if [ -z "$STOP_AFTER" ]; then

@@ -13,7 +13,7 @@ import { MetadataFields, asNumber, type MetadataForm } from './metadata-fields';
 import { NeffPanel } from './neff-panel';
 import { PassbandChart } from './passband-chart';
 import { fileFailure, type PreviewMetadata, type ReaderOptions } from './preview-api';
-import { UploadDashboard, UploadRefused, useSubmissionUppy, type UploadBody } from './uploader';
+import { UploadDashboard, UploadRefused, submitStaged, useSubmissionUppy, type UploadBody } from './uploader';
 
 type Added = { id: string; name: string; size: number; data: Blob };
 type FileMeta = { name: string; aoiDeg?: number; reader?: ReaderOptions; temperatureC?: number; polarization?: 'unpolarized' | 's' | 'p' };
@@ -56,7 +56,7 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
   const revise = mode.kind === 'revise';
   const endpoint = revise ? `/api/submissions/${mode.submissionId}/revise` : '/api/submissions';
   const draftKey = revise ? `revise-${mode.submissionId}` : 'submit';
-  const uppy = useSubmissionUppy(endpoint);
+  const uppy = useSubmissionUppy();
 
   const [files, setFiles] = useState<Added[]>([]);
   // The workbench only renders in the browser, so the draft can be read while the state is first made.
@@ -252,28 +252,31 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
       const body = JSON.stringify(metadata);
       let result: UploadBody | undefined;
       if (files.length > 0) {
-        uppy.setMeta({ metadata: body });
-        // Files that failed last time go again together with any new ones, still as one request.
+        // Files that failed last time go again together with any new ones.
         const all = uppy.getFiles();
-        if (all.some((f) => f.error) && all.some((f) => !f.error && !f.progress.uploadStarted)) {
+        if (all.some((f) => f.error)) {
           for (const f of all) if (f.error) uppy.setFileState(f.id, { error: null, progress: { ...f.progress, uploadStarted: null, uploadComplete: false, percentage: 0, bytesUploaded: false } });
         }
         let refused: { status: number; failure: ApiFailure } | undefined;
+        const asRefusal = (err: unknown) => (err instanceof UploadRefused ? { status: err.status, failure: err.body } : { status: 0, failure: { error: (err as Error)?.message ?? 'upload failed' } });
         const onError = (_f: unknown, err: unknown) => {
-          refused = err instanceof UploadRefused ? { status: err.status, failure: err.body } : { status: 0, failure: { error: (err as Error)?.message ?? 'upload failed' } };
+          refused ??= asRefusal(err);
         };
         uppy.on('upload-error', onError);
         try {
+          // Each file to the file store (presigned PUT), then the submission naming them.
           const outcome = await uppy.upload();
-          result = outcome?.successful?.[0]?.response?.body as UploadBody | undefined;
+          if (!refused && outcome && (outcome.failed?.length ?? 0) === 0) result = await submitStaged(endpoint, uppy, metadata);
         } catch (err) {
           // A refusal reaches us twice, as the event above and as this rejection; the event's copy carries the body.
-          refused ??= err instanceof UploadRefused ? { status: err.status, failure: err.body } : { status: 0, failure: { error: (err as Error)?.message ?? 'upload failed' } };
+          refused ??= asRefusal(err);
         } finally {
           uppy.off('upload-error', onError);
         }
         if (!result) {
           const r = refused ?? { status: 0, failure: { error: 'The upload did not finish.' } };
+          // A submission the server refused after the files arrived: they go to the file store again next time.
+          for (const f of uppy.getFiles()) uppy.setFileState(f.id, { progress: { ...f.progress, uploadStarted: null, uploadComplete: false, percentage: 0, bytesUploaded: false } });
           return applyFailure(r.status, r.failure);
         }
       } else {

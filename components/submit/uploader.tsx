@@ -2,7 +2,7 @@
 
 import { useState } from 'react';
 import Uppy, { type Meta } from '@uppy/core';
-import XHRUpload from '@uppy/xhr-upload';
+import AwsS3 from '@uppy/aws-s3';
 import Dashboard from '@uppy/react/dashboard';
 import '@uppy/core/css/style.min.css';
 import '@uppy/dashboard/css/style.min.css';
@@ -13,7 +13,9 @@ import type { SubmissionAnswer } from '@/moderation/submissions';
 
 /** What the submission routes answer (the server's own type, through lib/api-client.ts). */
 export type UploadBody = Json<SubmissionAnswer>;
-export type SubmissionUppy = Uppy<Meta, UploadBody>;
+/** Each file's meta carries the uploadId the server named its staging copy with. */
+export type UploadMeta = Meta & { uploadId?: string };
+export type SubmissionUppy = Uppy<UploadMeta, Record<string, never>>;
 
 export const ALLOWED_TYPES = ['.csv', '.tsv', '.txt', '.dat', '.asc', '.jdx', '.dx', '.jcamp', 'text/*'];
 export { MAX_FILE_BYTES } from '@/lib/engine/reader/limits';
@@ -29,39 +31,75 @@ export class UploadRefused extends Error {
   }
 }
 
+async function sha256Hex(data: Blob): Promise<string> {
+  const digest = await crypto.subtle.digest('SHA-256', await data.arrayBuffer());
+  return Array.from(new Uint8Array(digest), (b) => b.toString(16).padStart(2, '0')).join('');
+}
+
 /**
- * One Uppy per page. Every file goes in ONE multipart request (a set is one submission),
- * with the metadata JSON as a form field. Broken connections and gateway hiccups are
- * retried with back-off; a refusal (4xx) is final, since sending it again cannot help.
+ * One Uppy per page. Each file goes straight to the file store with a presigned PUT: the
+ * server is told its name, size and SHA-256 first (POST /api/uploads/presign) and answers with
+ * a signed address of a staging key it names. The submission (submitStaged) then names the
+ * uploadIds; the server checks each staged file against what was announced. A refusal (4xx) is
+ * final; the file store being away (503) is said in the server's words.
  */
-export function useSubmissionUppy(endpoint: string): SubmissionUppy {
-  const [uppy] = useState(() =>
-    new Uppy<Meta, UploadBody>({
+export function useSubmissionUppy(presignEndpoint = '/api/uploads/presign'): SubmissionUppy {
+  const [uppy] = useState(() => {
+    const u: SubmissionUppy = new Uppy<UploadMeta, Record<string, never>>({
       id: 'submission',
       autoProceed: false,
       restrictions: { allowedFileTypes: ALLOWED_TYPES, maxFileSize: MAX_FILE_BYTES, maxNumberOfFiles: MAX_FILES },
-    }).use(XHRUpload, {
-      endpoint,
-      bundle: true,
-      formData: true,
-      fieldName: 'file',
-      allowedMetaFields: ['metadata'],
-      limit: 1,
-      timeout: 120_000,
-      shouldRetry: (xhr) => xhr.status === 0 || xhr.status === 502 || xhr.status === 503 || xhr.status === 504,
-      onAfterResponse: (xhr) => {
-        if (xhr.status < 400 || xhr.status >= 500) return;
-        let body: UploadRefused['body'];
-        try {
-          body = JSON.parse(xhr.responseText);
-        } catch {
-          body = { error: `The server answered ${xhr.status}.` };
-        }
-        throw new UploadRefused(xhr.status, body);
+    });
+    return u.use(AwsS3, {
+      shouldUseMultipart: false,
+      limit: 4,
+      allowedMetaFields: false,
+      // The key Uppy asks to sign is the file's id; the server's answer replaces it with the staging key.
+      generateObjectKey: (file) => file.id,
+      signRequest: async (request) => {
+        const file = u.getFile(request.key);
+        if (request.method !== 'PUT' || !file) throw new Error('Only whole files are sent to the file store.');
+        const data = file.data as Blob;
+        const res = await fetch(presignEndpoint, {
+          method: 'POST',
+          headers: { 'content-type': 'application/json' },
+          body: JSON.stringify({ name: file.name, size: data.size, sha256: await sha256Hex(data), type: data.type || undefined }),
+        });
+        const body = await res.json().catch(() => ({ error: `The server answered ${res.status}.` }));
+        if (!res.ok) throw new UploadRefused(res.status, body);
+        u.setFileMeta(file.id, { uploadId: body.uploadId });
+        return { url: body.url, key: `staging/${body.uploadId}`, headers: body.headers };
       },
-    }),
-  );
+    });
+  });
   return uppy;
+}
+
+/**
+ * Sends the submission once every file is in the file store: metadata and the staged uploadIds,
+ * as JSON. A lost connection or a gateway hiccup is tried again (three tries, 1 s then 2 s apart);
+ * sending it twice cannot make two submissions, since the server takes each staged file once.
+ */
+export async function submitStaged(endpoint: string, uppy: SubmissionUppy, metadata: unknown): Promise<UploadBody> {
+  const uploads = uppy.getFiles().map((f) => f.meta.uploadId).filter((id): id is string => !!id);
+  for (let attempt = 1; ; attempt++) {
+    let res: Response | null = null;
+    try {
+      res = await fetch(endpoint, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ metadata, uploads }) });
+    } catch {
+      res = null;
+    }
+    const transient = res === null || res.status === 502 || res.status === 503 || res.status === 504;
+    if (transient && attempt < 3) {
+      await new Promise((r) => setTimeout(r, 1000 * attempt));
+      continue;
+    }
+    if (res === null) throw new UploadRefused(0, { error: 'network' });
+    const answer = res;
+    const body = await answer.json().catch(() => ({ error: `The server answered ${answer.status}.` }));
+    if (!answer.ok) throw new UploadRefused(answer.status, body);
+    return body as UploadBody;
+  }
 }
 
 export function UploadDashboard({ uppy, note }: { uppy: SubmissionUppy; note: string }) {

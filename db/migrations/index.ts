@@ -9,6 +9,7 @@ import rateLimits from './0007_rate_limits';
 import catalogueChanges from './0009_catalogue_changes';
 import curvePageReads from './0010_curve_page_reads';
 import polarisedNeff from './0011_polarised_neff';
+import rawFilesInBucket from './0012_raw_files_in_bucket';
 
 export type Migration = {
   name: string;
@@ -17,4 +18,4 @@ export type Migration = {
 };
 
 // Append new migrations here, in order; never edit one that has shipped.
-export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, coating, rateLimits, catalogueChanges, curvePageReads, polarisedNeff];
+export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, coating, rateLimits, catalogueChanges, curvePageReads, polarisedNeff, rawFilesInBucket];

@@ -1,6 +1,7 @@
 import { DataTypes, Model, type Sequelize, type InferAttributes, type InferCreationAttributes, type CreationOptional } from 'sequelize';
 
-// The raw bytes of an upload, kept exactly as they arrived.
+// A raw upload, kept exactly as it arrived: its bytes in the file store at raw/<sha256>
+// (lib/storage/), or in `content` for a file stored before migration 0012 and not yet moved.
 export class SubmissionFile extends Model<InferAttributes<SubmissionFile>, InferCreationAttributes<SubmissionFile>> {
   declare id: CreationOptional<number>;
   declare submissionId: number;
@@ -8,7 +9,8 @@ export class SubmissionFile extends Model<InferAttributes<SubmissionFile>, Infer
   declare originalName: string;
   declare sizeBytes: number;
   declare sha256: string;
-  declare content: Buffer;
+  declare content: CreationOptional<Buffer | null>;
+  declare mediaType: CreationOptional<string>;
   declare aoiDeg: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
 
@@ -21,7 +23,8 @@ export class SubmissionFile extends Model<InferAttributes<SubmissionFile>, Infer
         originalName: { type: DataTypes.TEXT, allowNull: false },
         sizeBytes: { type: DataTypes.INTEGER, allowNull: false },
         sha256: { type: DataTypes.TEXT, allowNull: false },
-        content: { type: DataTypes.BLOB, allowNull: false },
+        content: { type: DataTypes.BLOB, allowNull: true },
+        mediaType: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'text/plain' },
         aoiDeg: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
       },

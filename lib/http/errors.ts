@@ -46,7 +46,9 @@ export function errorResponse(err: unknown): NextResponse {
   // Engine and reader errors carry their own 4xx status and details.
   if (err instanceof HttpError || carriesStatus(err)) {
     const e = err as StatusCarrier;
-    return NextResponse.json({ error: e.message, details: Array.isArray(e.details) ? e.details : [] }, { status: e.status });
+    // A service of ours that is away (the file store, lib/storage/errors.ts): say when to come back.
+    const headers: Record<string, string> = e.status === 503 ? { 'Retry-After': String(RETRY_AFTER_SECONDS) } : {};
+    return NextResponse.json({ error: e.message, details: Array.isArray(e.details) ? e.details : [] }, { status: e.status, headers });
   }
   // A path or query with broken percent-encoding (e.g. %E0%A4%A) fails to decode: the client's fault.
   if (err instanceof URIError) {

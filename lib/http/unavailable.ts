@@ -23,11 +23,17 @@ function messageOf(err: unknown): string {
   return typeof m === 'string' ? m : '';
 }
 
+/** A socket that could not reach its service at all (the database, or the file store of lib/storage). */
+export function isSocketFailure(err: unknown): boolean {
+  const code = codeOf(err);
+  return !!code && SOCKET_CODES.has(code);
+}
+
 export function isDatabaseUnavailable(err: unknown, depth = 0): boolean {
   if (!err || typeof err !== 'object' || depth > 4) return false;
   if (err instanceof ConnectionError) return true;
   const code = codeOf(err);
-  if (code && (SOCKET_CODES.has(code) || SQLSTATES.has(code) || code.startsWith('08'))) return true;
+  if (isSocketFailure(err) || (code && (SQLSTATES.has(code) || code.startsWith('08')))) return true;
   const message = messageOf(err);
   // Plain strings compared with includes: no pattern is run on anything a user wrote.
   if (MESSAGES.some((m) => message.includes(m))) return true;

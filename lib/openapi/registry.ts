@@ -16,6 +16,7 @@ import { reviewDecisionSchema, submissionMetadataSchema, threadReplySchema } fro
 import { createTokenSchema } from '@/lib/schemas/tokens';
 import { fieldMapRequestSchema } from '@/lib/schemas/field-map';
 import { oddsQuerySchema } from '@/lib/schemas/odds';
+import { presignSchema } from '@/lib/schemas/upload';
 import * as r from './responses';
 
 export type Method = 'get' | 'post' | 'patch' | 'delete';
@@ -53,6 +54,7 @@ const err = (description: string): ApiResponse => ({ description, schema: r.erro
 const invalid = { 422: err('Well-formed but invalid: `details` names each field or file line.') };
 const signedIn = { 401: err('Not signed in and no valid bearer token.'), 403: err('The role does not allow this.') };
 const missing = { 404: err('No such record, or not one you may see.') };
+const storeDown = err('The file store (S3 bucket of raw files) cannot be reached; nothing was saved. `Retry-After` says when to try again.');
 
 // A multipart body is described by its fields; the handler reads it as a stream with size caps.
 const submissionForm = z.object({
@@ -245,9 +247,16 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
   {
     method: 'post', path: '/api/submissions', tag: 'Submissions', access: 'contributor',
     summary: 'Upload measured curves (one file, or a multi-angle set) for review',
-    description: 'Multipart. The `metadata` field holds JSON of the SubmissionMetadata schema below; several files form one curve set, each file\'s AOI given in `files`. Nothing is stored when any file or field is refused.',
+    description: 'Multipart. The `metadata` field holds JSON of the SubmissionMetadata schema below; several files form one curve set, each file\'s AOI given in `files`. Or JSON `{ metadata, uploads: [uploadId, …] }` naming files already sent to the file store (POST /api/uploads/presign): each is read back and must have the size and SHA-256 announced, else 422 and nothing is stored. Nothing is stored when any file or field is refused.',
     body: { schema: submissionForm, type: 'multipart/form-data' },
-    responses: { 201: { description: 'Submitted, with the automatic checks and the new curve ids.', schema: r.submissionCreated }, 400: err('Malformed multipart body.'), ...signedIn, 413: err('A file, or the whole body, is over its limit.'), ...invalid, 429: err('Too many uploads.') },
+    responses: { 201: { description: 'Submitted, with the automatic checks and the new curve ids.', schema: r.submissionCreated }, 400: err('Malformed multipart body.'), ...signedIn, 413: err('A file, or the whole body, is over its limit.'), ...invalid, 429: err('Too many uploads.'), 503: storeDown },
+  },
+  {
+    method: 'post', path: '/api/uploads/presign', tag: 'Submissions', access: 'contributor',
+    summary: 'A signed address to send one file straight to the file store',
+    description: 'Announce a file by name, size (bytes, 5 MB at most) and SHA-256; PUT its bytes to `url` with `headers` before `expiresAt`, then name `uploadId` in a JSON submission. The file lands under a staging key the server chose; staged files nobody submits are swept after a day. 60 a minute per contributor.',
+    body: { schema: presignSchema },
+    responses: { 201: { description: 'Where to PUT the file.', schema: r.presigned }, 400: err('Malformed JSON.'), ...signedIn, ...invalid, 429: err('Too many files a minute.'), 503: storeDown },
   },
   {
     method: 'get', path: '/api/submissions', tag: 'Submissions', access: 'contributor',
@@ -273,7 +282,7 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
     summary: 'Send a revised upload after a moderator asked for changes (the submitter only)',
     params: id('Submission'),
     body: { schema: submissionForm, type: 'multipart/form-data' },
-    responses: { 200: { description: 'Back in the queue, with fresh checks.', schema: r.submissionCreated }, ...signedIn, ...missing, 409: err('The submission is not waiting for changes.'), 413: err('Over a limit.'), ...invalid },
+    responses: { 200: { description: 'Back in the queue, with fresh checks.', schema: r.submissionCreated }, ...signedIn, ...missing, 409: err('The submission is not waiting for changes.'), 413: err('Over a limit.'), ...invalid, 503: storeDown },
   },
   {
     method: 'post', path: '/api/submissions/{id}/notes', tag: 'Submissions', access: 'contributor',
@@ -286,7 +295,7 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
     method: 'get', path: '/api/submissions/{id}/files/{fileId}', tag: 'Submissions', access: 'contributor',
     summary: 'An uploaded file, byte for byte',
     params: z.object({ id: z.string().describe('Submission id'), fileId: z.string().describe('File id') }),
-    responses: { 200: { description: 'The raw file; `x-content-sha256` carries its hash.', type: 'text/plain' }, ...signedIn, ...missing },
+    responses: { 200: { description: 'The raw file; `x-content-sha256` carries its hash.', type: 'text/plain' }, ...signedIn, ...missing, 503: storeDown },
   },
   // ---------------------------------------------------------------- tokens
   {

@@ -124,6 +124,13 @@ export const submissionCreated = z.looseObject({
   checks: z.array(z.looseObject({ code: z.string(), level: z.string(), message: z.string() })),
   curveIds: z.array(z.number().int()),
 });
+export const presigned = z.object({
+  uploadId: z.uuid(),
+  method: z.literal('PUT'),
+  url: z.string().describe('Presigned address of the staging key; good until expiresAt.'),
+  headers: z.record(z.string(), z.string()).describe('Headers to send with the PUT.'),
+  expiresAt: z.string(),
+});
 export const submissionList = z.looseObject({ items: z.array(z.looseObject({ id: z.number().int(), status: z.string() })), total: z.number().int() });
 export const submissionDetail = z.looseObject({ id: z.number().int(), status: z.string() });
 export const reviewResult = z.looseObject({ status: z.string() });

@@ -9,6 +9,8 @@ import { query } from '../support/db';
 import { makeUser } from '../support/users';
 import { angleScale, curveCsv, HA_NM } from '../integration/submissions-fixtures';
 import { closeSequelize } from '@/db/connection';
+import { bucketOrigin } from '@/lib/storage/config';
+import { exists, rawKey } from '@/lib/storage/objects';
 
 // One filter measured at two angles, generated with n_eff = 2.0 (docs/model.md §Angle shift): the
 // fitted effective index must come back as 2.0 and the normal-incidence CWL as 656.3 nm.
@@ -108,7 +110,12 @@ describe('a curve set from the bench to the public library', () => {
     await page.locator('#m-method\\.beam').selectOption('collimated');
     await page.locator('#m-method\\.lab').fill('Walkthrough bench');
     await screenshot(page, 'contribute-submit-1440');
-    // The first attempt loses its connection; Uppy sends the same bundle again by itself.
+    // Each file goes from the browser straight to the file store (a presigned PUT through Uppy's S3 plugin).
+    const puts: string[] = [];
+    page.on('requestfinished', (req) => {
+      if (req.method() === 'PUT' && req.url().startsWith(bucketOrigin())) puts.push(new URL(req.url()).pathname);
+    });
+    // The first attempt to submit loses its connection; the page sends it again by itself.
     let attempts = 0;
     await page.route('**/api/submissions', async (route) => {
       attempts += 1;
@@ -126,6 +133,15 @@ describe('a curve set from the bench to the public library', () => {
       `SELECT s.status, (SELECT count(*)::int FROM submission_files f WHERE f.submission_id = s.id) AS files,
               (SELECT count(*)::int FROM curves c WHERE c.submission_id = s.id) AS curves FROM submissions s WHERE s.id = :id`, { id: submissionId });
     expect(row).toEqual({ status: 'submitted', files: 2, curves: 2 });
+    expect(puts).toHaveLength(2);
+    expect(puts.every((p) => p.includes('/staging/'))).toBe(true);
+    // The rows keep hash, size, name and type; the bytes are in the bucket under raw/<sha256>, the staging copies gone.
+    const files = await query<{ sha256: string; in_row: boolean }>('SELECT sha256, content IS NOT NULL AS in_row FROM submission_files WHERE submission_id = :id', { id: submissionId });
+    for (const f of files) {
+      expect(f.in_row).toBe(false);
+      expect(await exists(rawKey(f.sha256))).toBe(true);
+    }
+    for (const p of puts) expect(await exists(p.slice(p.indexOf('/staging/') + 1))).toBe(false);
     await page.context().close();
   });
 

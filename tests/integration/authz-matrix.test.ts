@@ -219,6 +219,13 @@ const MATRIX: Record<string, Partial<Record<Method, Case[]>>> = {
       expect: S(401, 200, 404, 403, 403, 200),
     }],
   },
+  'uploads/presign': {
+    POST: [{
+      what: 'a signed address for one file',
+      request: () => ({ path: '/api/uploads/presign', body: { name: 'matrix.csv', size: 120, sha256: 'ab'.repeat(32) } }),
+      expect: S(401, 201, 201, 201, 201, 201),
+    }],
+  },
   'tokens': {
     GET: [{ what: 'list tokens', request: () => ({ path: '/api/tokens' }), expect: S(401, 200, 200, 200, 200, 200) }],
     POST: [{ what: 'create a token', request: () => ({ path: '/api/tokens', body: { name: 'matrix' } }), expect: S(401, 201, 201, 201, 201, 403) }],

@@ -1,5 +1,5 @@
 import { execFile } from 'node:child_process';
-import { randomUUID } from 'node:crypto';
+import { createHash, randomUUID } from 'node:crypto';
 import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -26,6 +26,9 @@ async function scratch(name: string) {
   return dir;
 }
 
+// A bucket of its own on the same file store, so the restore puts every object and checks it there.
+const freshBucket = () => `bandcone-restore-${randomUUID().slice(0, 8)}`;
+
 // A cluster's folder must be reachable by the postgres user, so it goes under .data/ (not a private temp dir), made by the script.
 function clusterDir() {
   const dir = path.join(root, '.data', `restore-test-${randomUUID().slice(0, 8)}`);
@@ -45,9 +48,31 @@ describe('scripts/backup.sh and scripts/restore.sh', () => {
     expect(fingerprint).toMatch(/^raw-files-not-matching-their-sha256\|0$/m);
     expect(fingerprint).toMatch(/^verified-points\|[0-9a-f]{32}$/m);
 
+    // The file store's raw files: one per stored file's hash, each written under its own SHA-256.
+    const objects = (await readFile(path.join(backup, 'objects.txt'), 'utf8')).trim().split('\n');
+    const [{ hashes }] = await query<{ hashes: string }>('SELECT count(DISTINCT sha256)::text AS hashes FROM submission_files WHERE content IS NULL');
+    expect(objects.length).toBeGreaterThanOrEqual(Number(hashes));
+    expect(Number(hashes)).toBeGreaterThan(0);
+    const [first] = objects[0].split('|');
+    const bytes = await readFile(path.join(backup, first));
+    expect(createHash('sha256').update(bytes).digest('hex')).toBe(first.slice('raw/'.length));
+
     const data = clusterDir();
-    const restored = await run('bash', [path.join(root, 'scripts/restore.sh'), backup, '--data', data, '--port', restorePort, '--stop'], { cwd: root, env: process.env, timeout: 180_000 });
+    const restored = await run('bash', [path.join(root, 'scripts/restore.sh'), backup, '--data', data, '--port', restorePort, '--bucket', freshBucket(), '--stop'], { cwd: root, env: process.env, timeout: 180_000 });
     expect(restored.stdout).toMatch(/every count and checksum equal/);
+    expect(restored.stdout).toMatch(new RegExp(`file store: ${objects.length} raw objects put into bucket bandcone-restore-[0-9a-f]+ \\(0 already there\\), 0 rows without their bytes`));
+  }, 300_000);
+
+  it('a backup missing a raw file is reported by the restore, not passed', async () => {
+    const backup = await scratch('backup-no-file');
+    await run('bash', [path.join(root, 'scripts/backup.sh'), backup], { cwd: root, env: process.env, timeout: 120_000 });
+    const [{ sha256 }] = await query<{ sha256: string }>('SELECT sha256 FROM submission_files WHERE content IS NULL ORDER BY id LIMIT 1');
+    await rm(path.join(backup, 'raw', sha256));
+    const data = clusterDir();
+    const outcome = await run('bash', [path.join(root, 'scripts/restore.sh'), backup, '--data', data, '--port', restorePort, '--bucket', freshBucket(), '--stop'], { cwd: root, env: process.env, timeout: 180_000 })
+      .then(() => 'passed', (err: { stdout?: string; stderr?: string }) => `${err.stdout ?? ''}${err.stderr ?? ''}`);
+    expect(outcome).toMatch(/is missing from bucket/);
+    expect(outcome).toMatch(/the restored file store does NOT match/);
   }, 300_000);
 
   it('a restore that differs from its backup is reported, not passed', async () => {

@@ -4,6 +4,14 @@ import { anonymous, json, signIn, type Client } from '../support/http';
 import { query } from '../support/db';
 import { makeUser } from '../support/users';
 import { closeSequelize } from '@/db/connection';
+import { rawKey, readCapped } from '@/lib/storage/objects';
+
+/** A stored raw file's bytes as text, read from the file store (raw/<sha256>). */
+async function storedText(sha256: string): Promise<string> {
+  const got = await readCapped(rawKey(sha256), 10 * 1024 * 1024);
+  if (!got || !('bytes' in got)) throw new Error(`raw/${sha256} is not in the file store`);
+  return got.bytes.toString('utf8');
+}
 import { angleScale, curveCsv, HA_NM, metadataFor, singleCurve, submissionForm } from './submissions-fixtures';
 
 afterAll(() => closeSequelize());
@@ -91,10 +99,10 @@ describe('POST /api/submissions', () => {
     // docs/model.md §Effective index recovers the index the files were generated with.
     expect(curves[0].n_eff).toBeCloseTo(2, 1);
     expect(curves.every((c) => c.status === 'submitted')).toBe(true);
-    const stored = await query<{ original_name: string; sha256: string; content: Buffer }>(`SELECT original_name, sha256, content FROM submission_files WHERE submission_id = :id ORDER BY aoi_deg`, { id: result.id });
+    const stored = await query<{ original_name: string; sha256: string }>(`SELECT original_name, sha256 FROM submission_files WHERE submission_id = :id ORDER BY aoi_deg`, { id: result.id });
     for (const [i, f] of stored.entries()) {
       expect(f.original_name).toBe(files[i].name);
-      expect(Buffer.from(f.content).toString('utf8')).toBe(files[i].text);
+      expect(await storedText(f.sha256)).toBe(files[i].text);
       expect(f.sha256).toBe(createHash('sha256').update(files[i].text).digest('hex'));
     }
     expect(result.checks.map((c) => c.code)).toEqual(expect.arrayContaining(['cwl-nominal', 'coverage']));
@@ -336,9 +344,9 @@ describe('revisions: POST /api/submissions/:id/revise', () => {
     form.append('metadata', JSON.stringify(metadataFor({ method: { ...metadataFor().method, temperatureC: 22 } })));
     const res = await owner.fetch(`/api/submissions/${s.id}/revise`, { method: 'POST', body: form });
     expect(res.status).toBe(200);
-    const latest = await query<{ content: Buffer; revision: number }>(`SELECT content, revision FROM submission_files WHERE submission_id = :id ORDER BY id DESC LIMIT 1`, { id: s.id });
+    const latest = await query<{ sha256: string; revision: number }>(`SELECT sha256, revision FROM submission_files WHERE submission_id = :id ORDER BY id DESC LIMIT 1`, { id: s.id });
     expect(latest[0].revision).toBe(2);
-    expect(Buffer.from(latest[0].content).toString('utf8')).toBe(f.text);
+    expect(await storedText(latest[0].sha256)).toBe(f.text);
     const [row] = await query<{ t: string }>(`SELECT metadata->'method'->>'temperatureC' AS t FROM submissions WHERE id = :id`, { id: s.id });
     expect(row.t).toBe('22');
   });

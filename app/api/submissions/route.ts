@@ -1,13 +1,13 @@
 import { NextResponse } from 'next/server';
 import { withErrors } from '@/lib/http/errors';
 import { requireRole } from '@/lib/auth/actor';
-import { readSubmissionForm } from '@/moderation/multipart';
+import { readSubmission } from '@/moderation/multipart';
 import { createSubmission, parseMetadata } from '@/moderation/submissions';
 import { listSubmissions } from '@/moderation/views';
 
 export const POST = withErrors(async (req: Request) => {
   const actor = await requireRole('contributor', req);
-  const { metadata, files } = await readSubmissionForm(req);
+  const { metadata, files } = await readSubmission(req, actor.id);
   const result = await createSubmission(actor, parseMetadata(metadata), files);
   return NextResponse.json(result, { status: 201 });
 });
