@@ -3,9 +3,13 @@
  * re-sorting ask for the same counts again, and counting is the one part of a
  * search that must visit every match. Counts can lag a new verification by at
  * most TTL_MS (this process forgets them at once; other app servers on expiry).
+ * Counts taken in the first seconds after a change are not kept: a read replica may not
+ * have replayed the change yet (lib/catalogue/read-source.ts).
  */
 export const COUNT_TTL_MS = 30_000;
+const SETTLE_MS = 2_000;
 const MAX_ENTRIES = 500;
+let changedAt = -Infinity;
 
 const entries = new Map<string, { at: number; value: Promise<unknown> }>();
 
@@ -19,6 +23,7 @@ export function cachedCounts<T>(key: string, compute: () => Promise<T>): Promise
     return hit.value as Promise<T>;
   }
   const value = compute();
+  if (now - changedAt < SETTLE_MS) return value;
   entries.set(key, { at: now, value });
   // a failed count is not remembered
   value.catch(() => entries.delete(key));
@@ -28,5 +33,6 @@ export function cachedCounts<T>(key: string, compute: () => Promise<T>): Promise
 
 /** Called when the public catalogue changes (a curve verified or superseded). */
 export function forgetCounts(): void {
+  changedAt = Date.now();
   entries.clear();
 }
