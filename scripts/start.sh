@@ -13,6 +13,12 @@ export SMTP_URL="${SMTP_URL:-smtp://127.0.0.1:$SMTP_PORT}"
 export NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:$PORT}"
 export DEMO_PASSWORD="${DEMO_PASSWORD:-bandcone-demo}"
 
+# Catalogue reads go to a hot standby on BANDCONE_REPLICA_PORT; BANDCONE_REPLICA=0 keeps them on the primary.
+start_local_replica() {
+  if [ "${BANDCONE_REPLICA:-1}" = 0 ]; then return 0; fi
+  start_standby "$ROOT/.data/pg" "$ROOT/.data/pg-replica" "${BANDCONE_REPLICA_PORT:-54330}" "$DB_NAME"
+}
+
 trap 'stop_started' EXIT
 trap 'exit 130' INT TERM
 
@@ -21,6 +27,7 @@ ensure_node_modules
 ensure_secret
 start_cluster "$ROOT/.data/pg" "$PGPORT"
 prepare_database "$DB_NAME" if-empty
+start_local_replica
 
 if [ -z "${SMTP_URL_EXTERNAL:-}" ] && [[ "$SMTP_URL" == smtp://127.0.0.1:* ]]; then
   log "starting the mail catcher on 127.0.0.1:$SMTP_PORT"
