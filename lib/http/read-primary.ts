@@ -59,12 +59,14 @@ export function settleReadSource(req: IncomingMessage, res: ServerResponse, now 
   if (hasWroteCookie(one(req.headers.cookie)) || (at !== undefined && now - at < READ_PRIMARY_SECONDS() * 1000)) {
     req.headers[READ_PRIMARY_HEADER] = '1';
   }
-  if (!WRITES.has(req.method ?? 'GET')) return;
+  // only a signed-in caller's write can change what the catalogue shows them (an anonymous POST
+  // is a preview or a model call), so only theirs marks what follows
+  if (!key || !WRITES.has(req.method ?? 'GET')) return;
   const cookie = `${WROTE_COOKIE}=1; Max-Age=${READ_PRIMARY_SECONDS()}; Path=/; HttpOnly; SameSite=Lax`;
   const writeHead = res.writeHead.bind(res) as (...args: unknown[]) => ServerResponse;
   res.writeHead = ((status: number, ...rest: unknown[]) => {
     if (status < 400 && !res.headersSent) {
-      if (key) remember(key, Date.now());
+      remember(key, Date.now());
       // added to what the app set (headers given to writeHead itself take precedence, as Node merges them)
       const prior = res.getHeader('set-cookie');
       const list = prior === undefined ? [] : Array.isArray(prior) ? prior.map(String) : [String(prior)];

@@ -30,8 +30,9 @@ const read = async (headers: Record<string, string> = {}) => (await fetch(`${bas
 const write = (path: string, headers: Record<string, string> = {}) => fetch(`${base}${path}`, { method: 'POST', headers });
 
 describe('reads after the caller’s own write stay on the primary', () => {
-  it('a write that succeeds sets a short-lived cookie beside the app’s own, and that cookie marks the reads after it', async () => {
-    const res = await write('/w?app-cookie');
+  it('a signed-in write that succeeds sets a short-lived cookie beside the app’s own, and that cookie marks the reads after it', async () => {
+    expect((await write('/w')).headers.getSetCookie()).toEqual([]); // anonymous: a preview or a model call
+    const res = await write('/w?app-cookie', { authorization: 'Bearer token-c' });
     const cookies = res.headers.getSetCookie();
     expect(cookies).toContain('app=1; Path=/');
     const mark = cookies.find((c) => c.startsWith(`${WROTE_COOKIE}=`));
