@@ -13,9 +13,11 @@ export SMTP_URL="${SMTP_URL:-smtp://127.0.0.1:$SMTP_PORT}"
 export NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:$PORT}"
 export DEMO_PASSWORD="${DEMO_PASSWORD:-bandcone-demo}"
 
-# Catalogue reads go to a hot standby on BANDCONE_REPLICA_PORT; BANDCONE_REPLICA=0 keeps them on the primary.
+# Catalogue reads go to a hot standby on BANDCONE_REPLICA_PORT; BANDCONE_REPLICA=0 keeps them on the
+# primary, and a DATABASE_REPLICA_URL of your own is used as it is.
 start_local_replica() {
   if [ "${BANDCONE_REPLICA:-1}" = 0 ]; then return 0; fi
+  if [ -n "${DATABASE_REPLICA_URL:-}" ]; then REPLICA_DATABASE_URL="$DATABASE_REPLICA_URL"; return 0; fi
   start_standby "$ROOT/.data/pg" "$ROOT/.data/pg-replica" "${BANDCONE_REPLICA_PORT:-54330}" "$DB_NAME"
 }
 
