@@ -56,13 +56,13 @@ function primary() {
 
 /*
  * Catalogue reads on the streaming replica. A Sequelize model class belongs to one connection,
- * so the replica gets subclasses of the three models a catalogue read touches (curves, their
- * contributors, public reviews), with the associations those reads follow. Inside onReplica(),
+ * so the replica gets subclasses of the four models a catalogue read touches (curves, their
+ * contributors, public reviews, the optics a reader may pick), with the associations those reads follow. Inside onReplica(),
  * db() answers with them (and the replica's connection), so the catalogue's services run
  * unchanged on either database; everything else, and everything outside the scope, stays on the
  * primary. Scope and models live on globalThis: the server and Next's bundle load this module apart.
  */
-type ReplicaModels = { sequelize: Sequelize; User: typeof User; Curve: typeof Curve; Review: typeof Review };
+type ReplicaModels = { sequelize: Sequelize; User: typeof User; Curve: typeof Curve; Review: typeof Review; Optic: typeof Optic };
 const shared = globalThis as unknown as { bandconeReplicaScope?: AsyncLocalStorage<ReplicaModels>; bandconeReplicaModels?: WeakMap<Sequelize, ReplicaModels> };
 const scope = (shared.bandconeReplicaScope ??= new AsyncLocalStorage<ReplicaModels>());
 const replicaModels = (shared.bandconeReplicaModels ??= new WeakMap());
@@ -73,13 +73,15 @@ function bindReplica(sequelize: Sequelize): ReplicaModels {
     class ReplicaUser extends User {}
     class ReplicaCurve extends Curve {}
     class ReplicaReview extends Review {}
+    class ReplicaOptic extends Optic {}
     ReplicaUser.initModel(sequelize);
+    ReplicaOptic.initModel(sequelize);
     ReplicaCurve.initModel(sequelize);
     ReplicaReview.initModel(sequelize);
     ReplicaCurve.belongsTo(ReplicaUser, { foreignKey: 'contributorId', as: 'contributor' });
     ReplicaCurve.belongsTo(ReplicaCurve, { foreignKey: 'replacesCurveId', as: 'replaces' });
     ReplicaReview.belongsTo(ReplicaUser, { foreignKey: 'authorId', as: 'author' });
-    m = { sequelize, User: ReplicaUser, Curve: ReplicaCurve, Review: ReplicaReview };
+    m = { sequelize, User: ReplicaUser, Curve: ReplicaCurve, Review: ReplicaReview, Optic: ReplicaOptic };
     replicaModels.set(sequelize, m);
   }
   return m;
