@@ -16,8 +16,11 @@ export async function register() {
   // The in-process copy behind fitness searches takes about a second to read at 100 000 curves;
   // reading it now, in the background, spares the first visitor that wait. A failure here only
   // means the first search reads it instead.
+  // Read from where the searches will read it: the replica when there is one.
   setTimeout(() => {
-    import('@/lib/catalogue/memory-index').then((m) => m.catalogueCopy()).catch(() => undefined);
+    Promise.all([import('@/lib/catalogue/memory-index'), import('@/lib/catalogue/read-source')])
+      .then(([m, r]) => r.readCatalogue(() => m.catalogueCopy()))
+      .catch(() => undefined);
   }, 0);
 }
 

@@ -18,6 +18,7 @@ import { guardRequest } from './lib/http/request-guard';
 import { databaseRecentlyLost, databaseUp, UNAVAILABLE_PAGE } from './lib/http/database-health';
 import { RETRY_AFTER_SECONDS } from './lib/http/unavailable';
 import { DEFAULT_FITNESS_CACHE_MB } from './lib/catalogue/cache-budget';
+import { settleReadSource } from './lib/http/read-primary';
 
 function flag(name: string): string | undefined {
   const i = process.argv.indexOf(name);
@@ -94,6 +95,8 @@ async function main() {
       return;
     }
     if (!url.startsWith('/api/') && !url.startsWith('/_next/')) answerLostDatabaseAs503(res);
+    // a caller's reads just after their own write stay on the primary (read-primary.ts)
+    if (!url.startsWith('/_next/')) settleReadSource(req, res);
     handle(req, res).catch((err: unknown) => {
       console.error(err);
       if (!res.headersSent) refuse(res, 500, 'Something went wrong on our side; nothing was saved.');

@@ -5,6 +5,10 @@
 // reads and writes rows, never changes the schema; see db/migrations/0005). The start and
 // test scripts give APP_DATABASE_URL to the server process only. Without it (npm run dev)
 // the app falls back to DATABASE_URL.
+//
+// DATABASE_REPLICA_URL, when set, is a read-only streaming replica (a hot standby) that serves
+// the public catalogue's reads: searches, curve pages, exports (lib/catalogue/read-source.ts).
+// Everything else stays on APP_DATABASE_URL.
 
 export function databaseUrl(): string {
   const url = process.env.DATABASE_URL;
@@ -17,4 +21,9 @@ export function databaseUrl(): string {
 /** The connection a process uses for its ordinary work: the app role when one is configured. */
 export function appDatabaseUrl(): string {
   return process.env.APP_DATABASE_URL || databaseUrl();
+}
+
+/** The hot standby catalogue reads may use, or null when there is none. */
+export function replicaDatabaseUrl(): string | null {
+  return process.env.DATABASE_REPLICA_URL || null;
 }

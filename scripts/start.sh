@@ -17,6 +17,14 @@ export DEMO_PASSWORD="${DEMO_PASSWORD:-bandcone-demo}"
 # copies of the catalogue stay within 1 GB). server.ts explains; WEB_CONCURRENCY=1 for one process.
 export WEB_CONCURRENCY="${WEB_CONCURRENCY:-$(( $(nproc) >= 2 ? 2 : 1 ))}"
 
+# Catalogue reads go to a hot standby on BANDCONE_REPLICA_PORT; BANDCONE_REPLICA=0 keeps them on the
+# primary, and a DATABASE_REPLICA_URL of your own is used as it is.
+start_local_replica() {
+  if [ "${BANDCONE_REPLICA:-1}" = 0 ]; then return 0; fi
+  if [ -n "${DATABASE_REPLICA_URL:-}" ]; then REPLICA_DATABASE_URL="$DATABASE_REPLICA_URL"; return 0; fi
+  start_standby "$ROOT/.data/pg" "$ROOT/.data/pg-replica" "${BANDCONE_REPLICA_PORT:-54330}" "$DB_NAME"
+}
+
 trap 'stop_started' EXIT
 trap 'exit 130' INT TERM
 
@@ -29,6 +37,7 @@ prepare_database "$DB_NAME" if-empty
 # Files stored in the database before migration 0012 move to the file store; if it cannot be
 # reached they stay where they are and are served from there (the script says so).
 move_raw_files || log "raw files not moved yet; the app serves them from the database meanwhile"
+start_local_replica
 
 if [ -z "${SMTP_URL_EXTERNAL:-}" ] && [[ "$SMTP_URL" == smtp://127.0.0.1:* ]]; then
   log "starting the mail catcher on 127.0.0.1:$SMTP_PORT"

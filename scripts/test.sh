@@ -19,6 +19,16 @@ export BANDCONE_TEST=1
 # Mail retries start 1 s apart (30 s outside tests) so the outage test sees several tries quickly.
 export MAIL_RETRY_DELAY_SECONDS="${MAIL_RETRY_DELAY_SECONDS:-1}"
 
+# The hot standby the server reads the catalogue from; the replica tests pause, stop and start it.
+start_test_replica() {
+  export TEST_REPLICA_PORT="${BANDCONE_TEST_REPLICA_PORT:-54340}"
+  export TEST_REPLICA_DATA="$TEST_DATA-replica"
+  start_standby "$TEST_DATA" "$TEST_REPLICA_DATA" "$TEST_REPLICA_PORT" "$DB_NAME"
+  export TEST_REPLICA_URL="$REPLICA_OWNER_URL" PGBIN
+  # a replica outage is noticed at once and the probe asks again every half second in tests
+  export DB_REPLICA_RETRY_MS="${DB_REPLICA_RETRY_MS:-500}"
+}
+
 trap 'stop_started' EXIT
 trap 'exit 130' INT TERM
 
@@ -35,6 +45,7 @@ prepare_database "$DB_NAME" fresh
 move_raw_files
 # Tests connect as the owner (DATABASE_URL); this lets them also try things as the app role.
 export TEST_APP_DATABASE_URL="$APP_DATABASE_URL"
+start_test_replica
 
 log "type-checking and linting"
 npx tsc --noEmit

@@ -50,7 +50,7 @@ export class Curve extends Model<InferAttributes<Curve>, InferCreationAttributes
   declare updatedAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {
-    Curve.init(
+    this.init(
       {
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
         submissionId: DataTypes.INTEGER,

@@ -1,3 +1,4 @@
+import { AsyncLocalStorage } from 'node:async_hooks';
 import type { Sequelize } from 'sequelize';
 import { getSequelize } from '../connection';
 import { User } from './user';
@@ -41,7 +42,7 @@ function associate() {
 }
 
 // Models bind to the process's one connection the first time anyone asks for them.
-export function db() {
+function primary() {
   const sequelize = getSequelize();
   if (!initialised.has(sequelize)) {
     for (const model of [User, Account, Session, VerificationToken, UserToken, ApiToken, Optic, Submission, SubmissionFile, Curve, Review, AuditEvent, MailMessage]) {
@@ -51,4 +52,53 @@ export function db() {
     initialised.add(sequelize);
   }
   return { sequelize, User, Account, Session, VerificationToken, UserToken, ApiToken, Optic, Submission, SubmissionFile, Curve, Review, AuditEvent, MailMessage };
+}
+
+/*
+ * Catalogue reads on the streaming replica. A Sequelize model class belongs to one connection,
+ * so the replica gets subclasses of the four models a catalogue read touches (curves, their
+ * contributors, public reviews, the optics a reader may pick), with the associations those reads follow. Inside onReplica(),
+ * db() answers with them (and the replica's connection), so the catalogue's services run
+ * unchanged on either database; everything else, and everything outside the scope, stays on the
+ * primary. Scope and models live on globalThis: the server and Next's bundle load this module apart.
+ */
+type ReplicaModels = { sequelize: Sequelize; User: typeof User; Curve: typeof Curve; Review: typeof Review; Optic: typeof Optic };
+const shared = globalThis as unknown as { bandconeReplicaScope?: AsyncLocalStorage<ReplicaModels>; bandconeReplicaModels?: WeakMap<Sequelize, ReplicaModels> };
+const scope = (shared.bandconeReplicaScope ??= new AsyncLocalStorage<ReplicaModels>());
+const replicaModels = (shared.bandconeReplicaModels ??= new WeakMap());
+
+function bindReplica(sequelize: Sequelize): ReplicaModels {
+  let m = replicaModels.get(sequelize);
+  if (!m) {
+    class ReplicaUser extends User {}
+    class ReplicaCurve extends Curve {}
+    class ReplicaReview extends Review {}
+    class ReplicaOptic extends Optic {}
+    ReplicaUser.initModel(sequelize);
+    ReplicaOptic.initModel(sequelize);
+    ReplicaCurve.initModel(sequelize);
+    ReplicaReview.initModel(sequelize);
+    ReplicaCurve.belongsTo(ReplicaUser, { foreignKey: 'contributorId', as: 'contributor' });
+    ReplicaCurve.belongsTo(ReplicaCurve, { foreignKey: 'replacesCurveId', as: 'replaces' });
+    ReplicaReview.belongsTo(ReplicaUser, { foreignKey: 'authorId', as: 'author' });
+    m = { sequelize, User: ReplicaUser, Curve: ReplicaCurve, Review: ReplicaReview, Optic: ReplicaOptic };
+    replicaModels.set(sequelize, m);
+  }
+  return m;
+}
+
+/** Runs `read` with db() answering from the replica's connection `sequelize`. */
+export function onReplica<T>(sequelize: Sequelize, read: () => Promise<T>): Promise<T> {
+  return scope.run(bindReplica(sequelize), read);
+}
+
+/** Whether the caller runs inside onReplica(). */
+export function readingReplica(): boolean {
+  return scope.getStore() !== undefined;
+}
+
+export function db() {
+  const models = primary();
+  const replica = scope.getStore();
+  return replica ? { ...models, ...replica } : models;
 }

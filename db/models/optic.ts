@@ -19,7 +19,7 @@ export class Optic extends Model<InferAttributes<Optic>, InferCreationAttributes
   declare updatedAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {
-    Optic.init(
+    this.init(
       {
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
         ownerId: DataTypes.UUID,

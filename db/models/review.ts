@@ -14,7 +14,7 @@ export class Review extends Model<InferAttributes<Review>, InferCreationAttribut
   declare createdAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {
-    Review.init(
+    this.init(
       {
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
         submissionId: { type: DataTypes.INTEGER, allowNull: false },

@@ -4,9 +4,13 @@
  * search that must visit every match. Callers put the catalogue version in the
  * key, so a count kept by one process is never served after a verification in
  * another; this process also forgets them at once.
+ * Counts taken in the first seconds after a change are not kept: a read replica may not
+ * have replayed the change yet (lib/catalogue/read-source.ts).
  */
 export const COUNT_TTL_MS = 30_000;
+const SETTLE_MS = 2_000;
 const MAX_ENTRIES = 500;
+let changedAt = -Infinity;
 
 const entries = new Map<string, { at: number; value: Promise<unknown> }>();
 
@@ -20,6 +24,7 @@ export function cachedCounts<T>(key: string, compute: () => Promise<T>): Promise
     return hit.value as Promise<T>;
   }
   const value = compute();
+  if (now - changedAt < SETTLE_MS) return value;
   entries.set(key, { at: now, value });
   // a failed count is not remembered
   value.catch(() => entries.delete(key));
@@ -29,5 +34,6 @@ export function cachedCounts<T>(key: string, compute: () => Promise<T>): Promise
 
 /** Called when the public catalogue changes (a curve verified or superseded). */
 export function forgetCounts(): void {
+  changedAt = Date.now();
   entries.clear();
 }

@@ -14,6 +14,7 @@ import type { CurvePoints } from '@/lib/engine/types';
 import { unitSpread, type UnitSpread } from '@/lib/engine/spread';
 import { oneCurvePerUnit, UNIT_ATTRIBUTES } from './units';
 import { loadReadableCurve, readableWhere } from './points';
+import { readCatalogue } from './read-source';
 
 export function parseCurveId(raw: string): number {
   return parseId(raw, 'curve');
@@ -96,14 +97,16 @@ async function revisionChain(actor: Actor | null, curve: Curve) {
   return visible.map((v) => ({ id: v.id, revision: v.revision, status: v.status, verifiedAt: iso(v.verifiedAt), current: v.id === curve.id }));
 }
 
-export async function getCurveDetail(actor: Actor | null, id: number, origin: string): Promise<CurveDetail> {
-  return detailOf(actor, await loadReadableCurve(actor, id, false), origin);
+export function getCurveDetail(actor: Actor | null, id: number, origin: string): Promise<CurveDetail> {
+  return readCatalogue(async () => detailOf(actor, await loadReadableCurve(actor, id, false), origin));
 }
 
 /** The detail and the samples of one readable curve, from one read of its row (pages and downloads that show both). */
-export async function getCurveDetailWithPoints(actor: Actor | null, id: number, origin: string): Promise<{ detail: CurveDetail; points: CurvePoints }> {
-  const curve = await loadReadableCurve(actor, id, true);
-  return { detail: await detailOf(actor, curve, origin), points: { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission } };
+export function getCurveDetailWithPoints(actor: Actor | null, id: number, origin: string): Promise<{ detail: CurveDetail; points: CurvePoints }> {
+  return readCatalogue(async () => {
+    const curve = await loadReadableCurve(actor, id, true);
+    return { detail: await detailOf(actor, curve, origin), points: { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission } };
+  });
 }
 
 async function detailOf(actor: Actor | null, curve: Curve, origin: string): Promise<CurveDetail> {

@@ -10,6 +10,7 @@ import { publicCatalogueSql } from '@/lib/auth/policy';
 import { csvRow } from '@/lib/csv/safe';
 import { citationOf } from './detail';
 import { matchingVerifiedIds } from './search';
+import { readCatalogue } from './read-source';
 import type { SearchParams } from './search-params';
 
 export const MAX_EXPORT_CURVES = 10_000;
@@ -22,7 +23,12 @@ export type ExportRow = {
   wavelength_nm: number[]; transmission: number[];
 };
 
-async function loadBatch(ids: number[]): Promise<ExportRow[]> {
+/** One batch of an export, read on the replica when one serves (each batch chooses afresh: a stream outlives its request's first read). */
+function loadBatch(ids: number[]): Promise<ExportRow[]> {
+  return readCatalogue(() => readBatch(ids));
+}
+
+async function readBatch(ids: number[]): Promise<ExportRow[]> {
   const rows = await db().sequelize.query<ExportRow>(
     `SELECT c.id, c.label, c.maker, c.lines, c.serial, c.licence, c.revision, c.instrument, c.aoi_deg, c.lab, c.measured_on, c.verified_at,
             c.created_at, c.cwl_nm, c.fwhm_nm, c.peak_t, u.name AS contributor, c.wavelength_nm, c.transmission

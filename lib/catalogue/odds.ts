@@ -1,4 +1,5 @@
 import 'server-only';
+import { readCatalogue } from './read-source';
 import { db } from '@/db/models';
 import { findLine } from '@/lib/engine/lines';
 import { MIN_UNITS, oddsSentence, unitOdds, type OddsResult } from '@/lib/engine/odds';
@@ -40,9 +41,11 @@ export async function labelOdds(q: OddsQuery): Promise<OddsAnswer> {
   const hit = cache.get(key);
   if (hit && Date.now() - hit.at < TTL_MS) return hit.value;
 
-  const { Curve } = db();
-  const found = oneCurvePerUnit(await Curve.findAll({ where: { label: q.label, status: 'verified', aoiDeg: 0 }, attributes: ['id', 'label', ...UNIT_ATTRIBUTES], order: [['id', 'ASC']], limit: MAX_UNITS }));
-  const byId = await curvePointsByIds(found.map((c) => c.id));
+  const { found, byId } = await readCatalogue(async () => {
+    const { Curve } = db();
+    const units = oneCurvePerUnit(await Curve.findAll({ where: { label: q.label, status: 'verified', aoiDeg: 0 }, attributes: ['id', 'label', ...UNIT_ATTRIBUTES], order: [['id', 'ASC']], limit: MAX_UNITS }));
+    return { found: units, byId: await curvePointsByIds(units.map((c) => c.id)) };
+  });
   const rows = found.flatMap((c) => {
     const u = byId.get(c.id);
     return u ? [{ label: c.label, nEff: u.nEff, points: u.points }] : [];

@@ -5,16 +5,20 @@ import { readableCurvesWhere } from '@/lib/auth/policy';
 import { notFound } from '@/lib/http/errors';
 import type { CurvePoints } from '@/lib/engine/types';
 import { binaryArraySql, readFloat8Array } from './binary-array';
+import { readCatalogue } from './read-source';
 
 /** Who reads which curves: the READ rule of lib/auth/policy.ts. */
 export const readableWhere = readableCurvesWhere;
 
-export async function loadReadableCurve(actor: Actor | null, id: number, withPoints = true) {
-  const { Curve } = db();
-  const model = withPoints ? Curve.scope('withPoints') : Curve;
-  const curve = await model.findOne({ where: { id, ...readableWhere(actor) } });
-  if (!curve) throw notFound(`No curve ${id} that you can read.`);
-  return curve;
+/** One curve the caller may read (on the read replica when one serves: curve pages, downloads, model calls). */
+export function loadReadableCurve(actor: Actor | null, id: number, withPoints = true) {
+  return readCatalogue(async () => {
+    const { Curve } = db();
+    const model = withPoints ? Curve.scope('withPoints') : Curve;
+    const curve = await model.findOne({ where: { id, ...readableWhere(actor) } });
+    if (!curve) throw notFound(`No curve ${id} that you can read.`);
+    return curve;
+  });
 }
 
 /** Whole curves by id for the engine (no readability check: callers pass ids a search has already filtered), sent in binary form. */

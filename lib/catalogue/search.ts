@@ -22,6 +22,7 @@ import { binaryArraySql, readFloat8Array } from './binary-array';
 import { curvePointsByIds } from './points';
 import { answeredInMemory, searchInMemory, type CountGroup } from './memory-search';
 import { currentVersion } from './memory-index';
+import { copyServes, readCatalogue } from './read-source';
 import { byContrast, contrastOf, CONTRAST_CANDIDATES, CONTRAST_REFERENCE_BOX_NM, DEFAULT_CONTRAST_SKY } from './contrast';
 
 export interface SearchItem {
@@ -349,9 +350,14 @@ export interface SearchOptions {
   memory?: boolean;
 }
 
-export async function searchCurves(actor: Actor | null, p: SearchParams, options: SearchOptions = {}): Promise<SearchResult> {
+/** A catalogue search, on the read replica when one serves (read-source.ts). */
+export function searchCurves(actor: Actor | null, p: SearchParams, options: SearchOptions = {}): Promise<SearchResult> {
+  return readCatalogue(() => search(actor, p, options));
+}
+
+async function search(actor: Actor | null, p: SearchParams, options: SearchOptions): Promise<SearchResult> {
   if (p.sort === 'contrast' && hasFitness(p)) return searchByContrast(actor, p, options);
-  if (options.memory !== false && hasFitness(p) && (await answeredInMemory(actor, p))) {
+  if (options.memory !== false && hasFitness(p) && copyServes() && (await answeredInMemory(actor, p))) {
     const fromCopy = await searchCopy(actor, p);
     if (fromCopy) return fromCopy;
   }
@@ -377,7 +383,7 @@ async function searchByContrast(actor: Actor | null, p: SearchParams & { fNumber
   const pageSize = p.pageSize ?? DEFAULT_PAGE_SIZE;
   const page = p.page ?? 1;
   const dir = p.dir ?? DEFAULT_DIR.contrast;
-  const pool = await searchCurves(actor, { ...p, sort: 'throughput', dir: 'desc', page: 1, pageSize: CONTRAST_CANDIDATES }, options);
+  const pool = await search(actor, { ...p, sort: 'throughput', dir: 'desc', page: 1, pageSize: CONTRAST_CANDIDATES }, options);
   const gain = await contrastOf(p, pool.items);
   const ordered = [...pool.items].sort(byContrast(gain, dir));
   const items = ordered.slice((page - 1) * pageSize, page * pageSize).map((i) => ({ ...i, skyGain: gain.get(i.id) ?? null }));
@@ -483,7 +489,11 @@ async function finishPage(p: SearchParams, pupil: Pupil | undefined, items: Sear
 }
 
 /** Ids of every verified curve a search matches, in its order (for exports; no paging). */
-export async function matchingVerifiedIds(p: SearchParams, limit: number): Promise<{ ids: number[]; total: number }> {
+export function matchingVerifiedIds(p: SearchParams, limit: number): Promise<{ ids: number[]; total: number }> {
+  return readCatalogue(() => matchingIds(p, limit));
+}
+
+async function matchingIds(p: SearchParams, limit: number): Promise<{ ids: number[]; total: number }> {
   const pl = await plan(null, { ...p, status: undefined });
   const b = clauses(pl, new SqlParts());
   const { sort, dir } = ordering(p);

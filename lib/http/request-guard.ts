@@ -29,12 +29,22 @@ function one(v: string | string[] | undefined): string | undefined {
 
 /** The session cookie next-auth sets (plain, `__Secure-` prefixed, or split into `.0`, `.1` chunks). */
 export function carriesSessionCookie(cookieHeader: string | undefined): boolean {
-  if (!cookieHeader) return false;
-  return cookieHeader.split(';').some((part) => {
-    const name = part.slice(0, part.indexOf('=') >>> 0).trim();
-    return name === 'next-auth.session-token' || name === '__Secure-next-auth.session-token' ||
-      name.startsWith('next-auth.session-token.') || name.startsWith('__Secure-next-auth.session-token.');
-  });
+  return sessionCookieValue(cookieHeader) !== null;
+}
+
+/** The session cookie's value (its chunks joined in the order sent), or null when there is none. */
+export function sessionCookieValue(cookieHeader: string | undefined): string | null {
+  if (!cookieHeader) return null;
+  const values: string[] = [];
+  for (const part of cookieHeader.split(';')) {
+    const eq = part.indexOf('=');
+    const name = part.slice(0, eq >>> 0).trim();
+    if (name === 'next-auth.session-token' || name === '__Secure-next-auth.session-token' ||
+      name.startsWith('next-auth.session-token.') || name.startsWith('__Secure-next-auth.session-token.')) {
+      values.push(eq < 0 ? '' : part.slice(eq + 1).trim());
+    }
+  }
+  return values.length ? values.join('.') : null;
 }
 
 function hostOf(url: string): string | null {
