@@ -227,7 +227,7 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
     }
     const lead =
       status === 401 ? 'You are signed out. Sign in again (in another tab), then send it again: your draft is kept.'
-      : status === 0 ? 'The connection broke and retrying did not help; check the network and press the button again.'
+      : status === NO_ANSWER ? 'The connection broke and retrying did not help; check the network and press the button again.'
       : failure.error;
     setSummary(mapped > 0 && !forFile ? `${lead} The fields concerned are marked below.` : lead);
     requestAnimationFrame(() => summaryRef.current?.focus());

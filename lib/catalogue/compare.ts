@@ -1,4 +1,4 @@
-import { readId } from '@/lib/http/ids';
+import { readId } from '@/lib/http/read-id';
 import { parseSearchParams } from './search-params';
 
 /** The compare board shows at most eight curves (docs/design.md §Charts: never more than 8 series). */
