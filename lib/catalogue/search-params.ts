@@ -20,6 +20,17 @@ export const DEFAULT_DIR: Record<Sort, 'asc' | 'desc'> = {
   relevance: 'desc', cwl: 'asc', fwhm: 'asc', peak: 'desc', throughput: 'desc', newest: 'desc', contrast: 'desc',
 };
 
+/** FWHM facet buckets, nm: [from, to). */
+export const FWHM_BUCKETS: readonly [number, number | null][] = [
+  [0, 1], [1, 2], [2, 3], [3, 4], [4, 5], [5, 7], [7, 10], [10, 15], [15, 30], [30, null],
+];
+
+export function bucketKey([a, b]: readonly [number, number | null]): string {
+  return b === null ? `${a}+` : `${a}-${b}`;
+}
+
+const BUCKET_KEYS = FWHM_BUCKETS.map(bucketKey) as [string, ...string[]];
+
 // Query strings carry text: an empty value means "not set", anything else must read as a number.
 const num = (what: string, min: number, max: number, unit = '') =>
   z.preprocess(
@@ -45,6 +56,14 @@ export const searchParamsSchema = z
     cwlMax: num('cwlMax', 100, 3000, ' nm'),
     fwhmMin: num('fwhmMin', 0, 500, ' nm'),
     fwhmMax: num('fwhmMax', 0, 500, ' nm'),
+    // repeatable (fwhmBucket=2-3&fwhmBucket=3-4) or comma-separated: curves in any of the buckets
+    fwhmBucket: z.preprocess(
+      (v) => {
+        const list = (Array.isArray(v) ? v : typeof v === 'string' ? [v] : []).flatMap((x) => String(x).split(',')).map((x) => x.trim()).filter(Boolean);
+        return list.length ? [...new Set(list)] : undefined;
+      },
+      z.array(z.enum(BUCKET_KEYS, { error: `fwhmBucket must be one of ${BUCKET_KEYS.join(', ')}` })).max(BUCKET_KEYS.length).optional(),
+    ),
     peakMin: num('peakMin', 0, 1, ' (a fraction, 0.9 for 90 %)'),
     method: choice(INSTRUMENTS, 'method'),
     aoiMin: num('aoiMin', 0, 60, '°'),
@@ -94,11 +113,14 @@ export const searchParamsSchema = z
 
 export type SearchParams = z.output<typeof searchParamsSchema>;
 
+/** Parameters that may be given more than once. */
+export const REPEATABLE: readonly string[] = ['fwhmBucket'];
+
 /** Parses a query string; zod errors become a 422 through withErrors. */
-export function parseSearchParams(params: URLSearchParams | Record<string, string | undefined>): SearchParams {
-  const raw: Record<string, string> = {};
-  if (params instanceof URLSearchParams) params.forEach((v, k) => (raw[k] = v));
-  else for (const [k, v] of Object.entries(params)) if (typeof v === 'string') raw[k] = v;
+export function parseSearchParams(params: URLSearchParams | Record<string, string | string[] | undefined>): SearchParams {
+  const raw: Record<string, string | string[]> = {};
+  if (params instanceof URLSearchParams) params.forEach((v, k) => (raw[k] = REPEATABLE.includes(k) ? params.getAll(k) : v));
+  else for (const [k, v] of Object.entries(params)) if (typeof v === 'string' || (Array.isArray(v) && REPEATABLE.includes(k))) raw[k] = v;
   return searchParamsSchema.parse(raw);
 }
 
@@ -118,11 +140,3 @@ export function toQueryString(p: Partial<Record<keyof SearchParams, string | num
   return u.toString();
 }
 
-/** FWHM facet buckets, nm: [from, to). */
-export const FWHM_BUCKETS: readonly [number, number | null][] = [
-  [0, 1], [1, 2], [2, 3], [3, 4], [4, 5], [5, 7], [7, 10], [10, 15], [15, 30], [30, null],
-];
-
-export function bucketKey([a, b]: readonly [number, number | null]): string {
-  return b === null ? `${a}+` : `${a}-${b}`;
-}

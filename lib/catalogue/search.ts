@@ -15,6 +15,7 @@ import { findLine } from '@/lib/engine/lines';
 import { buildPupil, type Pupil } from '@/lib/engine/pupil';
 import { defaultNEff, fineSliceSql, fitnessSql, fitnessWeights, frameSql, offNormalThroughput, opticOf, type FitnessQuery, type Weights } from './fitness-grid';
 import { DEFAULT_DIR, DEFAULT_PAGE_SIZE, FWHM_BUCKETS, bucketKey, hasFitness, type SearchParams, type Sort } from './search-params';
+import { activeFilters, bucketIndex, FWHM_BUCKET_SQL, SORT_COLUMNS, nullsFirst, type FacetName, type Filter } from './filters';
 import { and, MARK_END, MARK_START, snippetHtml, SqlParts } from './sql';
 import { sparklineOf } from './sparkline';
 import { cachedCounts } from './count-cache';
@@ -92,6 +93,22 @@ function visibility(actor: Actor | null, p: SearchParams, s: SqlParts): string {
   return `c.status = ${s.param(status)} AND c.contributor_id = ${me}`;
 }
 
+/** One row of the filter table (filters.ts) as SQL. */
+function filterSql(f: Filter, p: SearchParams, s: SqlParts): string {
+  switch (f.operator) {
+    case '>=':
+    case '<=':
+      return `${f.column} ${f.operator} ${s.param(p[f.param])}`;
+    case '=':
+      return `${f.column} = ${s.param(p[f.param], 'cast' in f ? f.cast : '')}`;
+    // = ANY reads the covering index far faster than @> (which would reach the GIN on lines)
+    case 'has':
+      return `${s.param(p[f.param])}::text = ANY(${f.column})`;
+    case 'bucket-in':
+      return `${FWHM_BUCKET_SQL} = ANY(${s.param((p.fwhmBucket ?? []).map(bucketIndex), '::int[]')})`;
+  }
+}
+
 interface Built {
   s: SqlParts;
   /** Every filter except line, method and FWHM, which the facets leave out in turn. */
@@ -128,22 +145,14 @@ function clauses(plan: Plan, s: SqlParts, withFitness = true, omit: ('line' | 'm
     common.push(`c.search @@ ${query}`);
     rank = `ts_rank_cd(c.search, ${query})`;
   }
-  if (p.cwlMin !== undefined) common.push(`c.cwl_nm >= ${s.param(p.cwlMin)}`);
-  if (p.cwlMax !== undefined) common.push(`c.cwl_nm <= ${s.param(p.cwlMax)}`);
-  if (p.peakMin !== undefined) common.push(`c.peak_t >= ${s.param(p.peakMin)}`);
-  if (p.aoiMin !== undefined) common.push(`c.aoi_deg >= ${s.param(p.aoiMin)}`);
-  if (p.aoiMax !== undefined) common.push(`c.aoi_deg <= ${s.param(p.aoiMax)}`);
-  if (p.contributor) common.push(`c.contributor_id = ${s.param(p.contributor, '::uuid')}`);
-  // = ANY reads the covering index far faster than @> (which would reach the GIN on lines)
-  const line = p.line && !omit.includes('line') ? `${s.param(p.line)}::text = ANY(c.lines)` : null;
-  const method = p.method && !omit.includes('method') ? `c.instrument = ${s.param(p.method)}` : null;
-  const fwhmParts = omit.includes('fwhm')
-    ? []
-    : ([
-        p.fwhmMin !== undefined ? `c.fwhm_nm >= ${s.param(p.fwhmMin)}` : null,
-        p.fwhmMax !== undefined ? `c.fwhm_nm <= ${s.param(p.fwhmMax)}` : null,
-      ].filter(Boolean) as string[]);
-  const fwhm = fwhmParts.length ? and(fwhmParts) : null;
+  const byFacet: Record<FacetName, string[]> = { line: [], method: [], fwhm: [] };
+  for (const f of activeFilters(p)) {
+    if (f.facet && omit.includes(f.facet)) continue;
+    const sql = filterSql(f, p, s);
+    (f.facet ? byFacet[f.facet] : common).push(sql);
+  }
+  const part = (facet: FacetName) => (byFacet[facet].length ? and(byFacet[facet]) : null);
+  const [line, method, fwhm] = [part('line'), part('method'), part('fwhm')];
 
   let joins = '';
   let tau: string | null = null;
@@ -233,23 +242,21 @@ async function exactWhereGridCannot(plan: Plan, fq: FitnessQuery) {
 function orderBy(sort: Sort, dir: 'asc' | 'desc', b: Built): string {
   const d = dir === 'asc' ? 'ASC' : 'DESC';
   const tie = `c.id ${d}`;
-  // matches curves_catalogue_idx (or its backward scan), so the first page needs no sort
-  const newest = d === 'DESC' ? 'c.verified_at DESC NULLS LAST, c.id DESC' : 'c.verified_at ASC NULLS FIRST, c.id ASC';
+  const by = (key: Sort) => {
+    const c = SORT_COLUMNS[key]!;
+    // 'index' writes no NULLS clause, so the order matches an index (or its backward scan) and the first page needs no sort
+    const nulls = c.nulls === 'index' ? '' : nullsFirst(c.nulls, dir) ? ' NULLS FIRST' : ' NULLS LAST';
+    return `${c.column} ${d}${nulls}, ${tie}`;
+  };
   switch (sort) {
     case 'relevance':
-      return b.rank ? `${b.rank} ${d}, c.verified_at DESC NULLS LAST, c.id DESC` : newest;
-    case 'cwl':
-      return `c.cwl_nm ${d} NULLS LAST, ${tie}`;
-    case 'fwhm':
-      return `c.fwhm_nm ${d} NULLS LAST, ${tie}`;
-    case 'peak':
-      return `c.peak_t ${d}, ${tie}`;
+      return b.rank ? `${b.rank} ${d}, c.verified_at DESC NULLS LAST, c.id DESC` : by('newest');
     case 'throughput':
     // exports of a contrast search keep the throughput order of its candidates (contrast.ts)
     case 'contrast':
       return `${b.tau} ${d} NULLS LAST, ${tie}`;
-    case 'newest':
-      return newest;
+    default:
+      return by(sort);
   }
 }
 
@@ -321,9 +328,8 @@ export async function buildSearchSql(actor: Actor | null, p: SearchParams): Prom
   // FWHM bucket, the lines array, whether the FWHM filter holds), a few dozen groups at most;
   // the counts, each facet leaving out its own filter, are added up from the groups.
   const fb = clauses(pl, new SqlParts(), true, ['line', 'method']);
-  const buckets = `width_bucket(c.fwhm_nm, ARRAY[${FWHM_BUCKETS.slice(1).map(([a]) => a).join(',')}]::float8[])`;
   const facetSql = `
-    SELECT c.instrument, CASE WHEN c.fwhm_nm IS NULL THEN NULL ELSE ${buckets} END AS bucket, c.lines,
+    SELECT c.instrument, CASE WHEN c.fwhm_nm IS NULL THEN NULL ELSE ${FWHM_BUCKET_SQL} END AS bucket, c.lines,
            coalesce(${fb.fwhm ?? 'true'}, false) AS pf, count(*) AS n
     FROM curves c ${fb.joins} WHERE ${and(fb.common)}
     GROUP BY 1, 2, 3, 4`;
