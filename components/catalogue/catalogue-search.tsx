@@ -15,12 +15,24 @@ import type { OpticChoice, Query, SearchResponse } from './types';
 
 type Patch = Record<string, string | undefined>;
 
-class FetchError extends Error {}
+/** A refused search: its sentence, and per parameter what is wrong (shown at the field). */
+class FetchError extends Error {
+  constructor(
+    message: string,
+    readonly fields: Record<string, string>,
+  ) {
+    super(message);
+  }
+}
 
 async function fetcher(url: string): Promise<SearchResponse> {
   const res = await fetch(url, { headers: { accept: 'application/json' } });
   const body = await res.json().catch(() => null);
-  if (!res.ok) throw new FetchError(body?.error ?? `The search failed (${res.status}).`);
+  if (!res.ok) {
+    const fields: Record<string, string> = {};
+    for (const d of (body?.details ?? []) as { field?: string; message?: string }[]) if (d.field && d.message && !fields[d.field]) fields[d.field] = d.message;
+    throw new FetchError(body?.error ?? `The search failed (${res.status}).`, fields);
+  }
   return body as SearchResponse;
 }
 
@@ -82,6 +94,9 @@ export function CatalogueSearch(props: {
     revalidateOnFocus: false,
   });
   const shownError = error?.message ?? (key === props.initialQuery ? props.initialError : null);
+  // a refused search shows no results (the last ones no longer match what is asked); what is wrong stands at its field
+  const fieldErrors = error instanceof FetchError ? error.fields : {};
+  const current = shownError ? undefined : data;
 
   const hrefFor = useCallback(
     (patch: Patch) => {
@@ -106,7 +121,7 @@ export function CatalogueSearch(props: {
     else change({ sort: s, dir: undefined });
   };
 
-  const total = data?.total ?? 0;
+  const total = current?.total ?? 0;
   const page = data?.page ?? 1;
   const pageSize = data?.pageSize ?? 20;
   const pages = Math.max(1, Math.ceil(total / pageSize));
@@ -186,14 +201,14 @@ export function CatalogueSearch(props: {
             <span aria-hidden="true">{filtersOpen ? '▴' : '▾'}</span>
           </button>
           <div id="catalogue-filters" className={`${filtersOpen ? 'block' : 'hidden'} mt-2 rounded-card border border-rule bg-panel p-3 lg:mt-0 lg:block lg:max-h-[calc(100vh-2rem)] lg:overflow-auto lg:border-0 lg:bg-transparent lg:p-0 lg:pr-2`}>
-            <FilterPanel query={query} facets={data?.facets} optics={props.optics} isModerator={props.isModerator} signedIn={props.signedIn} onChange={change} />
+            <FilterPanel query={query} facets={data?.facets} errors={fieldErrors} optics={props.optics} isModerator={props.isModerator} signedIn={props.signedIn} onChange={change} />
           </div>
         </aside>
 
         <section aria-label="Results" className="min-w-0 space-y-3">
           <div className="flex flex-wrap items-center gap-x-4 gap-y-2 text-sm">
             <p aria-live="polite" data-testid="result-count">
-              {isLoading && !data ? 'Searching…' : <><strong className="figures">{total.toLocaleString('en-US')}</strong> curve{total === 1 ? '' : 's'}</>}
+              {isLoading && !data ? 'Searching…' : shownError ? 'No answer' : <><strong className="figures">{total.toLocaleString('en-US')}</strong> curve{total === 1 ? '' : 's'}</>}
               {isValidating && data ? <span className="ml-2 text-muted">updating…</span> : null}
             </p>
             <label className="flex items-center gap-2">
@@ -231,12 +246,12 @@ export function CatalogueSearch(props: {
             </p>
           ) : null}
 
-          {data && data.items.length === 0 ? (
-            <EmptyState query={query} data={data} onChange={change} hrefFor={hrefFor} />
-          ) : data ? (
+          {current && current.items.length === 0 ? (
+            <EmptyState query={query} data={current} onChange={change} hrefFor={hrefFor} />
+          ) : current ? (
             <>
               <ResultsTable
-                items={data.items}
+                items={current.items}
                 sort={sort}
                 dir={dir}
                 fitness={fitness}
@@ -244,12 +259,12 @@ export function CatalogueSearch(props: {
                 onSort={onSort}
                 busy={isValidating}
                 odds={
-                  data.fitness
+                  current.fitness
                     ? {
-                        fNumber: data.fitness.fNumber,
-                        obstruction: data.fitness.obstruction,
-                        ...(data.fitness.nEff !== null ? { nEff: data.fitness.nEff } : {}),
-                        fieldAngleDeg: data.fitness.fieldAngleDeg,
+                        fNumber: current.fitness.fNumber,
+                        obstruction: current.fitness.obstruction,
+                        ...(current.fitness.nEff !== null ? { nEff: current.fitness.nEff } : {}),
+                        fieldAngleDeg: current.fitness.fieldAngleDeg,
                         minThroughput: query.minThroughput ? Number(query.minThroughput) : 0.8,
                       }
                     : undefined

@@ -6,6 +6,8 @@
 
 import { z } from '@/lib/schemas/zod';
 import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
+import { NUMBER_LIMITS, type LimitedParam } from './limits';
+import { readQuantity } from './quantities';
 
 export const SORTS = ['relevance', 'cwl', 'fwhm', 'peak', 'throughput', 'newest', 'contrast'] as const;
 /** Sky models the contrast sort accepts (lib/engine/sky.ts). */
@@ -31,16 +33,23 @@ export function bucketKey([a, b]: readonly [number, number | null]): string {
 
 const BUCKET_KEYS = FWHM_BUCKETS.map(bucketKey) as [string, ...string[]];
 
-// Query strings carry text: an empty value means "not set", anything else must read as a number.
-const num = (what: string, min: number, max: number, unit = '') =>
-  z.preprocess(
-    (v) => (v === '' || v === undefined || v === null ? undefined : typeof v === 'string' ? Number(v.trim()) : v),
-    z
-      .number({ error: `${what} must be a number` })
-      .refine(Number.isFinite, `${what} must be a finite number`)
-      .refine((v) => v >= min && v <= max, `${what} must be between ${min} and ${max}${unit}`)
-      .optional(),
-  ).describe(`${min}–${max}${unit}`);
+// Query strings carry text: an empty value means "not set", anything else is read as the number fields
+// read it (quantities.ts: "f/2", "85 %", "5 nm", "50 Å"; a bare number in the parameter's own unit).
+const num = (param: LimitedParam) => {
+  const l = NUMBER_LIMITS[param];
+  return z
+    .preprocess((v, ctx) => {
+      if (v === '' || v === undefined || v === null) return undefined;
+      if (typeof v !== 'string') return v;
+      const r = readQuantity(param, v);
+      if (r.error) {
+        ctx.addIssue({ code: 'custom', message: r.error, input: v });
+        return z.NEVER;
+      }
+      return r.value ?? undefined;
+    }, z.number({ error: `${param} must be a number` }).refine(Number.isFinite, `${param} must be a finite number`).refine((v) => v >= l.min && v <= l.max, `${l.label} must be between ${l.min} and ${l.max}${l.unit}`).optional())
+    .describe(`${l.min}–${l.max}`);
+};
 
 const text = (max: number) =>
   z.preprocess((v) => (typeof v === 'string' ? v.trim() || undefined : v), z.string().max(max, `at most ${max} characters`).optional());
@@ -52,10 +61,10 @@ export const searchParamsSchema = z
   .object({
     q: text(200),
     line: choice(LINE_IDS, 'line'),
-    cwlMin: num('cwlMin', 100, 3000, ' nm'),
-    cwlMax: num('cwlMax', 100, 3000, ' nm'),
-    fwhmMin: num('fwhmMin', 0, 500, ' nm'),
-    fwhmMax: num('fwhmMax', 0, 500, ' nm'),
+    cwlMin: num('cwlMin'),
+    cwlMax: num('cwlMax'),
+    fwhmMin: num('fwhmMin'),
+    fwhmMax: num('fwhmMax'),
     // repeatable (fwhmBucket=2-3&fwhmBucket=3-4) or comma-separated: curves in any of the buckets
     fwhmBucket: z.preprocess(
       (v) => {
@@ -64,17 +73,17 @@ export const searchParamsSchema = z
       },
       z.array(z.enum(BUCKET_KEYS, { error: `fwhmBucket must be one of ${BUCKET_KEYS.join(', ')}` })).max(BUCKET_KEYS.length).optional(),
     ),
-    peakMin: num('peakMin', 0, 1, ' (a fraction, 0.9 for 90 %)'),
+    peakMin: num('peakMin'),
     method: choice(INSTRUMENTS, 'method'),
-    aoiMin: num('aoiMin', 0, 60, '°'),
-    aoiMax: num('aoiMax', 0, 60, '°'),
+    aoiMin: num('aoiMin'),
+    aoiMax: num('aoiMax'),
     status: choice(STATUS_FILTERS, 'status'),
     contributor: z.preprocess((v) => (v === '' ? undefined : v), z.uuid({ error: 'contributor must be a contributor id' }).optional()),
-    fNumber: num('fNumber', 0.5, 40),
-    obstruction: num('obstruction', 0, 0.9, ' (a diameter ratio)'),
-    nEff: num('nEff', 1, 4),
-    fieldAngleDeg: num('fieldAngleDeg', 0, 30, '°'),
-    minThroughput: num('minThroughput', 0, 1, ' (a fraction, 0.85 for 85 %)'),
+    fNumber: num('fNumber'),
+    obstruction: num('obstruction'),
+    nEff: num('nEff'),
+    fieldAngleDeg: num('fieldAngleDeg'),
+    minThroughput: num('minThroughput'),
     sort: choice(SORTS, 'sort'),
     sky: choice(SKY_MODEL_IDS, 'sky'),
     dir: choice(['asc', 'desc'] as const, 'dir'),
