@@ -11,6 +11,7 @@ import { EmptyState } from './empty-state';
 import { CompareTray } from './compare-tray';
 import { SolarCaution, ModelCaution } from './solar-caution';
 import { SORT_NAMES, SKY_NAMES, lineName, INSTRUMENT_NAMES } from './labels';
+import { understoodLabel } from './labels';
 import type { OpticChoice, Query, SearchResponse } from './types';
 
 type Patch = Record<string, string | undefined>;
@@ -34,6 +35,13 @@ async function fetcher(url: string): Promise<SearchResponse> {
     throw new FetchError(body?.error ?? `The search failed (${res.status}).`, fields);
   }
   return body as SearchResponse;
+}
+
+/** A chip's words taken out of the search box, spaces tidied. */
+function without(q: string, text: string): string | undefined {
+  const at = q.indexOf(text);
+  const rest = at < 0 ? q : `${q.slice(0, at)} ${q.slice(at + text.length)}`;
+  return rest.split(' ').filter(Boolean).join(' ') || undefined;
 }
 
 function toQuery(sp: URLSearchParams): Query {
@@ -157,6 +165,31 @@ export function CatalogueSearch(props: {
           />
           <button className="rounded-card bg-accent px-4 py-2 text-accent-ink">Search</button>
         </form>
+        {current?.understood?.length ? (
+          <ul className="flex flex-wrap gap-2 text-xs" aria-label="Read from the words" data-testid="understood">
+            {current.understood.map((u) => (
+              <li key={u.text} className={`flex items-center rounded-full border ${u.applied ? 'border-accent/60 bg-accent/10' : 'border-rule bg-panel text-muted'}`}>
+                <button
+                  type="button"
+                  className="py-0.5 pl-2 pr-1"
+                  title={u.applied ? 'Edit this in the filters' : 'A filter you set takes its place'}
+                  onClick={() => {
+                    // editing: the numbers become the search's own parameters, shown in the fields, and leave the words
+                    change({ ...Object.fromEntries(Object.entries(u.params).map(([k, v]) => [k, String(v)])), q: without(query.q ?? '', u.text) });
+                    setFiltersOpen(true);
+                  }}
+                  data-testid={`understood-${u.kind}`}
+                >
+                  {understoodLabel(u)}
+                  {u.applied ? '' : ' (not applied)'}
+                </button>
+                <button type="button" className="py-0.5 pl-1 pr-2" onClick={() => change({ q: without(query.q ?? '', u.text) })} aria-label={`Remove ${understoodLabel(u)}`}>
+                  <span aria-hidden="true">×</span>
+                </button>
+              </li>
+            ))}
+          </ul>
+        ) : null}
         {chips.length > 0 || fitness ? (
           <ul className="flex flex-wrap gap-2 text-xs" aria-label="Active filters">
             {chips.map(([k, v]) => (

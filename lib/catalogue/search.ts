@@ -16,6 +16,7 @@ import { buildPupil, type Pupil } from '@/lib/engine/pupil';
 import { defaultNEff, fineSliceSql, fitnessSql, fitnessWeights, frameSql, offNormalThroughput, opticOf, type FitnessQuery, type Weights } from './fitness-grid';
 import { DEFAULT_DIR, DEFAULT_PAGE_SIZE, FWHM_BUCKETS, bucketKey, hasFitness, type SearchParams, type Sort } from './search-params';
 import { activeFilters, bucketIndex, FWHM_BUCKET_SQL, SORT_COLUMNS, nullsFirst, type FacetName, type Filter } from './filters';
+import { readSearchWords, type Understood } from './read-query';
 import { and, MARK_END, MARK_START, snippetHtml, SqlParts } from './sql';
 import { sparklineOf } from './sparkline';
 import { cachedCounts } from './count-cache';
@@ -63,6 +64,9 @@ export interface SearchResult {
   fitness?: { lineId: string | null; fNumber: number; obstruction: number; nEff: number | null; fieldAngleDeg: number; gridLevel: number };
   /** How the contrast sort was answered (sort=contrast only). */
   contrast?: { sky: string; referenceBoxNm: number; candidates: number; note: string };
+  /** With `q`: the filters read from its words (read-query.ts) and the words left for the full-text search. */
+  understood?: Understood[];
+  words?: string;
 }
 
 /** Integer arrays (the fine level) come back as text and are split here: several times quicker than the driver's array parser. */
@@ -367,7 +371,17 @@ export interface SearchOptions {
   memory?: boolean;
 }
 
+/**
+ * A search as the API answers it: the words of `q` read into filters first (read-query.ts),.
+ */
 export async function searchCurves(actor: Actor | null, p: SearchParams, options: SearchOptions = {}): Promise<SearchResult> {
+  const read = readSearchWords(p);
+  const result = await runSearch(actor, read.params, options);
+  const out: SearchResult = p.q ? { ...result, understood: read.understood, words: read.words } : result;
+  return out;
+}
+
+async function runSearch(actor: Actor | null, p: SearchParams, options: SearchOptions): Promise<SearchResult> {
   if (p.sort === 'contrast' && hasFitness(p)) return searchByContrast(actor, p, options);
   if (options.memory !== false && hasFitness(p) && (await answeredInMemory(actor, p))) {
     const fromCopy = await searchCopy(actor, p);
@@ -394,7 +408,7 @@ async function searchByContrast(actor: Actor | null, p: SearchParams & { fNumber
   const pageSize = p.pageSize ?? DEFAULT_PAGE_SIZE;
   const page = p.page ?? 1;
   const dir = p.dir ?? DEFAULT_DIR.contrast;
-  const pool = await searchCurves(actor, { ...p, sort: 'throughput', dir: 'desc', page: 1, pageSize: CONTRAST_CANDIDATES }, options);
+  const pool = await runSearch(actor, { ...p, sort: 'throughput', dir: 'desc', page: 1, pageSize: CONTRAST_CANDIDATES }, options);
   const gain = await contrastOf(p, pool.items);
   const ordered = [...pool.items].sort(byContrast(gain, dir));
   const items = ordered.slice((page - 1) * pageSize, page * pageSize).map((i) => ({ ...i, skyGain: gain.get(i.id) ?? null }));
@@ -500,7 +514,8 @@ async function finishPage(p: SearchParams, pupil: Pupil | undefined, items: Sear
 }
 
 /** Ids of every verified curve a search matches, in its order (for exports; no paging). */
-export async function matchingVerifiedIds(p: SearchParams, limit: number): Promise<{ ids: number[]; total: number }> {
+export async function matchingVerifiedIds(typed: SearchParams, limit: number): Promise<{ ids: number[]; total: number }> {
+  const p = readSearchWords(typed).params;
   const pl = await plan(null, { ...p, status: undefined });
   const b = clauses(pl, new SqlParts());
   const { sort, dir } = ordering(p);
