@@ -17,6 +17,7 @@ import { defaultNEff, fineSliceSql, fitnessSql, fitnessWeights, frameSql, offNor
 import { DEFAULT_DIR, DEFAULT_PAGE_SIZE, FWHM_BUCKETS, bucketKey, hasFitness, type SearchParams, type Sort } from './search-params';
 import { activeFilters, bucketIndex, FWHM_BUCKET_SQL, SORT_COLUMNS, nullsFirst, type FacetName, type Filter } from './filters';
 import { readSearchWords, type Understood } from './read-query';
+import { nearestAnswers, type Nearest } from './nearest';
 import { and, MARK_END, MARK_START, snippetHtml, SqlParts } from './sql';
 import { sparklineOf } from './sparkline';
 import { cachedCounts } from './count-cache';
@@ -67,6 +68,8 @@ export interface SearchResult {
   /** With `q`: the filters read from its words (read-query.ts) and the words left for the full-text search. */
   understood?: Understood[];
   words?: string;
+  /** When nothing matches: the nearest answers, with the number of curves each finds. */
+  nearest?: Nearest;
 }
 
 /** Integer arrays (the fine level) come back as text and are split here: several times quicker than the driver's array parser. */
@@ -372,12 +375,14 @@ export interface SearchOptions {
 }
 
 /**
- * A search as the API answers it: the words of `q` read into filters first (read-query.ts),.
+ * A search as the API answers it: the words of `q` read into filters first (read-query.ts), and, when
+ * nothing matches, the nearest answers with true counts (nearest.ts).
  */
 export async function searchCurves(actor: Actor | null, p: SearchParams, options: SearchOptions = {}): Promise<SearchResult> {
   const read = readSearchWords(p);
   const result = await runSearch(actor, read.params, options);
   const out: SearchResult = p.q ? { ...result, understood: read.understood, words: read.words } : result;
+  if (result.total === 0) out.nearest = await nearestAnswers(read, p.q, (relaxed) => runSearch(actor, relaxed, options));
   return out;
 }
 
