@@ -10,7 +10,8 @@ import { ResultsTable } from './results-table';
 import { EmptyState } from './empty-state';
 import { CompareTray } from './compare-tray';
 import { SolarCaution, ModelCaution } from './solar-caution';
-import { SORT_NAMES, SKY_NAMES, lineName, INSTRUMENT_NAMES } from './labels';
+import { SORT_NAMES, SKY_NAMES, lineName, INSTRUMENT_NAMES, bucketLabel } from './labels';
+import { queryOf, queryString } from '@/lib/catalogue/query-string';
 import { understoodLabel } from './labels';
 import type { OpticChoice, Query, SearchResponse } from './types';
 
@@ -31,31 +32,20 @@ async function fetcher(url: string): Promise<SearchResponse> {
   const body = await res.json().catch(() => null);
   if (!res.ok) {
     const fields: Record<string, string> = {};
-    for (const d of (body?.details ?? []) as { field?: string; message?: string }[]) if (d.field && d.message && !fields[d.field]) fields[d.field] = d.message;
+    for (const d of (body?.details ?? []) as { field?: string; message?: string }[]) if (d.field && d.message) fields[d.field.split('.')[0]] ??= d.message;
     throw new FetchError(body?.error ?? `The search failed (${res.status}).`, fields);
   }
   return body as SearchResponse;
 }
+
+const toQuery = (sp: URLSearchParams): Query => queryOf(sp);
+const qs = queryString;
 
 /** A chip's words taken out of the search box, spaces tidied. */
 function without(q: string, text: string): string | undefined {
   const at = q.indexOf(text);
   const rest = at < 0 ? q : `${q.slice(0, at)} ${q.slice(at + text.length)}`;
   return rest.split(' ').filter(Boolean).join(' ') || undefined;
-}
-
-function toQuery(sp: URLSearchParams): Query {
-  const q: Query = {};
-  sp.forEach((v, k) => {
-    if (v !== '') q[k] = v;
-  });
-  return q;
-}
-
-function qs(q: Query): string {
-  const u = new URLSearchParams();
-  for (const [k, v] of Object.entries(q).sort(([a], [b]) => a.localeCompare(b))) if (v !== '' && v !== undefined) u.set(k, v);
-  return u.toString();
 }
 
 const FILTER_NAMES: Record<string, (v: string) => string> = {
@@ -65,6 +55,7 @@ const FILTER_NAMES: Record<string, (v: string) => string> = {
   cwlMax: (v) => `CWL ≤ ${v} nm`,
   fwhmMin: (v) => `FWHM ≥ ${v} nm`,
   fwhmMax: (v) => `FWHM ≤ ${v} nm`,
+  fwhmBucket: (v) => `FWHM ${v.split(',').map(bucketLabel).join(', ')}`,
   peakMin: (v) => `peak ≥ ${Number((Number(v) * 100).toPrecision(4))} %`,
   method: (v) => INSTRUMENT_NAMES[v] ?? v,
   aoiMin: (v) => `AOI ≥ ${v}°`,
@@ -122,7 +113,7 @@ export function CatalogueSearch(props: {
   );
   const change = useCallback((patch: Patch) => router.push(hrefFor(patch), { scroll: false }), [router, hrefFor]);
 
-  const sort = (data?.sort ?? query.sort ?? (query.q ? 'relevance' : 'newest')) as Sort;
+  const sort = (data?.sort ?? query.sort ?? (query.fNumber ? 'throughput' : query.q ? 'relevance' : 'newest')) as Sort;
   const dir = data?.dir ?? query.dir ?? DEFAULT_DIR[sort];
   const onSort = (s: Sort) => {
     if (s === sort) change({ sort: s, dir: dir === 'asc' ? 'desc' : 'asc' });

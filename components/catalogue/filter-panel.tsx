@@ -5,7 +5,7 @@ import { LINE_IDS, INSTRUMENTS } from '@/lib/schemas/submission';
 import { FWHM_BUCKETS, bucketKey } from '@/lib/catalogue/search-params';
 import { readQuantity } from '@/lib/catalogue/quantities';
 import type { LimitedParam } from '@/lib/catalogue/limits';
-import { INSTRUMENT_NAMES, bucketLabel, bucketRange, lineName } from './labels';
+import { INSTRUMENT_NAMES, bucketLabel, lineName } from './labels';
 import type { Facet, OpticChoice, Query } from './types';
 
 type Patch = Record<string, string | undefined>;
@@ -126,7 +126,8 @@ export function FilterPanel(props: {
     (o) => String(o.fNumber) === q.fNumber && String(o.obstruction) === (q.obstruction ?? '0') && String(o.fieldAngleDeg) === (q.fieldAngleDeg ?? '0'),
   );
   const lineKeys = LINE_IDS.filter((id) => count(facets?.line, id) > 0 || q.line === id);
-  const bucketKeys = FWHM_BUCKETS.map(bucketKey).filter((k) => count(facets?.fwhm, k) > 0);
+  const chosen = (q.fwhmBucket ?? '').split(',').filter(Boolean);
+  const bucketKeys = FWHM_BUCKETS.map(bucketKey).filter((k) => count(facets?.fwhm, k) > 0 || chosen.includes(k));
 
   return (
     <div className="space-y-4" data-testid="filter-panel">
@@ -186,11 +187,12 @@ export function FilterPanel(props: {
       <Section title="FWHM" id="fwhm">
         <div className="space-y-0.5">
           {bucketKeys.map((k) => {
-            const r = bucketRange(k);
-            const on = (q.fwhmMin ?? '') === r.fwhmMin && (q.fwhmMax ?? '') === r.fwhmMax;
+            const on = chosen.includes(k);
+            // several buckets at once (fwhmBucket=2-3&fwhmBucket=3-4): curves in any of them
+            const next = on ? chosen.filter((x) => x !== k) : [...chosen, k];
             return (
-              <label key={k} className="flex cursor-pointer items-center gap-2 rounded px-1 py-0.5 text-sm hover:bg-accent/5">
-                <input type="checkbox" checked={on} onChange={() => onChange(on ? { fwhmMin: undefined, fwhmMax: undefined } : { fwhmMin: r.fwhmMin, fwhmMax: r.fwhmMax || undefined })} className="accent-[rgb(var(--c-accent))]" />
+              <label key={k} className="flex cursor-pointer items-center gap-2 rounded px-1 py-0.5 text-sm hover:bg-accent/5" data-testid={`fwhm-bucket-${k}`}>
+                <input type="checkbox" name="fwhmBucket" value={k} checked={on} onChange={() => onChange({ fwhmBucket: next.length ? FWHM_BUCKETS.map(bucketKey).filter((x) => next.includes(x)).join(',') : undefined })} className="accent-[rgb(var(--c-accent))]" />
                 <span className="figures flex-1">{bucketLabel(k)}</span>
                 <span className="figures text-xs text-muted">{count(facets?.fwhm, k)}</span>
               </label>

@@ -40,11 +40,6 @@ export function bucketLabel(key: string): string {
   return `${a}–${b} nm`;
 }
 
-export function bucketRange(key: string): { fwhmMin: string; fwhmMax: string } {
-  if (key.endsWith('+')) return { fwhmMin: key.slice(0, -1), fwhmMax: '' };
-  const [a, b] = key.split('-');
-  return { fwhmMin: a, fwhmMax: b };
-}
 
 /** A chip for what the search box's words were read as (read-query.ts). */
 export function understoodLabel(u: { kind: string; params: Record<string, string | number | undefined> }): string {

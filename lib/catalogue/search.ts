@@ -296,7 +296,8 @@ export interface SearchSql {
 
 /** The order and page a search asks for, with their defaults. */
 function ordering(p: SearchParams) {
-  const sort: Sort = p.sort ?? (p.q ? 'relevance' : 'newest');
+  // with an optic, line throughput is what the reader came for (unless they chose an order)
+  const sort: Sort = p.sort ?? (hasFitness(p) ? 'throughput' : p.q ? 'relevance' : 'newest');
   return { sort, dir: p.dir ?? DEFAULT_DIR[sort], page: p.page ?? 1, pageSize: p.pageSize ?? DEFAULT_PAGE_SIZE };
 }
 
