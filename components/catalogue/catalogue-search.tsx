@@ -3,7 +3,7 @@
 import { useCallback, useMemo, useState } from 'react';
 import { usePathname, useRouter, useSearchParams } from 'next/navigation';
 import useSWR from 'swr';
-import { api, getJson } from '@/lib/api-client';
+import { api, ApiError, getJson } from '@/lib/api-client';
 import { formatFNumber, formatRatio, formatDeg } from '@/components/charts/format';
 import { DEFAULT_DIR, SORTS, type Sort } from '@/lib/catalogue/search-params';
 import { FilterPanel } from './filter-panel';
@@ -11,23 +11,28 @@ import { ResultsTable } from './results-table';
 import { EmptyState } from './empty-state';
 import { CompareTray } from './compare-tray';
 import { SolarCaution, ModelCaution } from './solar-caution';
-import { SORT_NAMES, SKY_NAMES, lineName, INSTRUMENT_NAMES } from './labels';
+import { SORT_NAMES, SKY_NAMES, lineName, INSTRUMENT_NAMES, bucketLabel } from './labels';
+import { queryOf, queryString } from '@/lib/catalogue/query-string';
+import { understoodLabel } from './labels';
 import type { OpticChoice, Query, SearchResponse } from './types';
 
 type Patch = Record<string, string | undefined>;
 
-function toQuery(sp: URLSearchParams): Query {
-  const q: Query = {};
-  sp.forEach((v, k) => {
-    if (v !== '') q[k] = v;
-  });
-  return q;
+/** Per parameter, what a refused search says is wrong with it (shown at the field). */
+function fieldErrorsOf(error: unknown): Record<string, string> {
+  const fields: Record<string, string> = {};
+  if (error instanceof ApiError) for (const d of error.failure.details ?? []) if (d.field && d.message) fields[d.field.split('.')[0]] ??= d.message;
+  return fields;
 }
 
-function qs(q: Query): string {
-  const u = new URLSearchParams();
-  for (const [k, v] of Object.entries(q).sort(([a], [b]) => a.localeCompare(b))) if (v !== '' && v !== undefined) u.set(k, v);
-  return u.toString();
+const toQuery = (sp: URLSearchParams): Query => queryOf(sp);
+const qs = queryString;
+
+/** A chip's words taken out of the search box, spaces tidied. */
+function without(q: string, text: string): string | undefined {
+  const at = q.indexOf(text);
+  const rest = at < 0 ? q : `${q.slice(0, at)} ${q.slice(at + text.length)}`;
+  return rest.split(' ').filter(Boolean).join(' ') || undefined;
 }
 
 const FILTER_NAMES: Record<string, (v: string) => string> = {
@@ -37,6 +42,7 @@ const FILTER_NAMES: Record<string, (v: string) => string> = {
   cwlMax: (v) => `CWL ≤ ${v} nm`,
   fwhmMin: (v) => `FWHM ≥ ${v} nm`,
   fwhmMax: (v) => `FWHM ≤ ${v} nm`,
+  fwhmBucket: (v) => `FWHM ${v.split(',').map(bucketLabel).join(', ')}`,
   peakMin: (v) => `peak ≥ ${Number((Number(v) * 100).toPrecision(4))} %`,
   method: (v) => INSTRUMENT_NAMES[v] ?? v,
   aoiMin: (v) => `AOI ≥ ${v}°`,
@@ -74,6 +80,9 @@ export function CatalogueSearch(props: {
     revalidateOnFocus: false,
   });
   const shownError = error?.message ?? (key === props.initialQuery ? props.initialError : null);
+  // a refused search shows no results (the last ones no longer match what is asked); what is wrong stands at its field
+  const fieldErrors = fieldErrorsOf(error);
+  const current = shownError ? undefined : data;
 
   const hrefFor = useCallback(
     (patch: Patch) => {
@@ -91,14 +100,14 @@ export function CatalogueSearch(props: {
   );
   const change = useCallback((patch: Patch) => router.push(hrefFor(patch), { scroll: false }), [router, hrefFor]);
 
-  const sort = (data?.sort ?? query.sort ?? (query.q ? 'relevance' : 'newest')) as Sort;
+  const sort = (data?.sort ?? query.sort ?? (query.fNumber ? 'throughput' : query.q ? 'relevance' : 'newest')) as Sort;
   const dir = data?.dir ?? query.dir ?? DEFAULT_DIR[sort];
   const onSort = (s: Sort) => {
     if (s === sort) change({ sort: s, dir: dir === 'asc' ? 'desc' : 'asc' });
     else change({ sort: s, dir: undefined });
   };
 
-  const total = data?.total ?? 0;
+  const total = current?.total ?? 0;
   const page = data?.page ?? 1;
   const pageSize = data?.pageSize ?? 20;
   const pages = Math.max(1, Math.ceil(total / pageSize));
@@ -134,6 +143,31 @@ export function CatalogueSearch(props: {
           />
           <button className="rounded-card bg-accent px-4 py-2 text-accent-ink">Search</button>
         </form>
+        {current?.understood?.length ? (
+          <ul className="flex flex-wrap gap-2 text-xs" aria-label="Read from the words" data-testid="understood">
+            {current.understood.map((u) => (
+              <li key={u.text} className={`flex items-center rounded-full border ${u.applied ? 'border-accent/60 bg-accent/10' : 'border-rule bg-panel text-muted'}`}>
+                <button
+                  type="button"
+                  className="py-0.5 pl-2 pr-1"
+                  title={u.applied ? 'Edit this in the filters' : 'A filter you set takes its place'}
+                  onClick={() => {
+                    // editing: the numbers become the search's own parameters, shown in the fields, and leave the words
+                    change({ ...Object.fromEntries(Object.entries(u.params).map(([k, v]) => [k, String(v)])), q: without(query.q ?? '', u.text) });
+                    setFiltersOpen(true);
+                  }}
+                  data-testid={`understood-${u.kind}`}
+                >
+                  {understoodLabel(u)}
+                  {u.applied ? '' : ' (not applied)'}
+                </button>
+                <button type="button" className="py-0.5 pl-1 pr-2" onClick={() => change({ q: without(query.q ?? '', u.text) })} aria-label={`Remove ${understoodLabel(u)}`}>
+                  <span aria-hidden="true">×</span>
+                </button>
+              </li>
+            ))}
+          </ul>
+        ) : null}
         {chips.length > 0 || fitness ? (
           <ul className="flex flex-wrap gap-2 text-xs" aria-label="Active filters">
             {chips.map(([k, v]) => (
@@ -178,14 +212,14 @@ export function CatalogueSearch(props: {
             <span aria-hidden="true">{filtersOpen ? '▴' : '▾'}</span>
           </button>
           <div id="catalogue-filters" className={`${filtersOpen ? 'block' : 'hidden'} mt-2 rounded-card border border-rule bg-panel p-3 lg:mt-0 lg:block lg:max-h-[calc(100vh-2rem)] lg:overflow-auto lg:border-0 lg:bg-transparent lg:p-0 lg:pr-2`}>
-            <FilterPanel query={query} facets={data?.facets} optics={props.optics} isModerator={props.isModerator} signedIn={props.signedIn} onChange={change} />
+            <FilterPanel query={query} facets={data?.facets} errors={fieldErrors} optics={props.optics} isModerator={props.isModerator} signedIn={props.signedIn} onChange={change} />
           </div>
         </aside>
 
         <section aria-label="Results" className="min-w-0 space-y-3">
           <div className="flex flex-wrap items-center gap-x-4 gap-y-2 text-sm">
             <p aria-live="polite" data-testid="result-count">
-              {isLoading && !data ? 'Searching…' : <><strong className="figures">{total.toLocaleString('en-US')}</strong> curve{total === 1 ? '' : 's'}</>}
+              {isLoading && !data ? 'Searching…' : shownError ? 'No answer' : <><strong className="figures">{total.toLocaleString('en-US')}</strong> curve{total === 1 ? '' : 's'}</>}
               {isValidating && data ? <span className="ml-2 text-muted">updating…</span> : null}
             </p>
             <label className="flex items-center gap-2">
@@ -223,12 +257,12 @@ export function CatalogueSearch(props: {
             </p>
           ) : null}
 
-          {data && data.items.length === 0 ? (
-            <EmptyState query={query} data={data} onChange={change} hrefFor={hrefFor} />
-          ) : data ? (
+          {current && current.items.length === 0 ? (
+            <EmptyState query={query} data={current} onChange={change} hrefFor={hrefFor} />
+          ) : current ? (
             <>
               <ResultsTable
-                items={data.items}
+                items={current.items}
                 sort={sort}
                 dir={dir}
                 fitness={fitness}
@@ -236,12 +270,12 @@ export function CatalogueSearch(props: {
                 onSort={onSort}
                 busy={isValidating}
                 odds={
-                  data.fitness
+                  current.fitness
                     ? {
-                        fNumber: data.fitness.fNumber,
-                        obstruction: data.fitness.obstruction,
-                        ...(data.fitness.nEff !== null ? { nEff: data.fitness.nEff } : {}),
-                        fieldAngleDeg: data.fitness.fieldAngleDeg,
+                        fNumber: current.fitness.fNumber,
+                        obstruction: current.fitness.obstruction,
+                        ...(current.fitness.nEff !== null ? { nEff: current.fitness.nEff } : {}),
+                        fieldAngleDeg: current.fitness.fieldAngleDeg,
                         minThroughput: query.minThroughput ? Number(query.minThroughput) : 0.8,
                       }
                     : undefined

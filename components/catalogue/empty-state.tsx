@@ -1,75 +1,63 @@
 'use client';
 
-import { bucketLabel, INSTRUMENT_NAMES, lineName } from './labels';
 import type { Query, SearchResponse } from './types';
 
 type Patch = Record<string, string | undefined>;
-interface Suggestion {
-  text: string;
-  patch: Patch;
-  gain?: number;
+
+/** A relaxation's change to the address: null removes the parameter. */
+function patchOf(params: Record<string, string | null>): Patch {
+  return Object.fromEntries(Object.entries(params).map(([k, v]) => [k, v ?? undefined]));
 }
 
-const pct = (v: string) => `${Number((Number(v) * 100).toPrecision(4))} %`;
+const pct = (v: number) => `${Number((v * 100).toPrecision(3))} %`;
 
-/** What to loosen when nothing matches, most helpful first; counts come from the facets where they are known. */
-export function suggestions(q: Query, data: SearchResponse | undefined): Suggestion[] {
-  const out: Suggestion[] = [];
-  const sum = (f?: { count: number }[]) => f?.reduce((s, x) => s + x.count, 0);
-  if (q.minThroughput) {
-    const lower = Math.max(0, Number(q.minThroughput) - 0.1);
-    out.push({ text: `Ask for ${pct(String(lower))} of the line instead of ${pct(q.minThroughput)}`, patch: { minThroughput: lower > 0 ? String(Number(lower.toFixed(3))) : undefined } });
-    out.push({ text: 'Drop the minimum line throughput', patch: { minThroughput: undefined } });
-  }
-  if (q.fwhmMin || q.fwhmMax) {
-    const best = data?.facets.fwhm.slice().sort((a, b) => b.count - a.count)[0];
-    out.push({ text: 'Remove the FWHM limit', patch: { fwhmMin: undefined, fwhmMax: undefined }, gain: sum(data?.facets.fwhm) });
-    if (best) out.push({ text: `Try FWHM ${bucketLabel(best.key)}`, patch: { fwhmMin: best.key.split(/[-+]/)[0], fwhmMax: best.key.endsWith('+') ? undefined : best.key.split('-')[1] }, gain: best.count });
-  }
-  if (q.line) {
-    const other = data?.facets.line.filter((f) => f.key !== q.line).sort((a, b) => b.count - a.count)[0];
-    out.push({ text: `Any line instead of ${lineName(q.line)}`, patch: { line: undefined } });
-    if (other) out.push({ text: `Look at ${lineName(other.key)}`, patch: { line: other.key }, gain: other.count });
-  }
-  if (q.method) out.push({ text: `Any instrument, not only ${INSTRUMENT_NAMES[q.method] ?? q.method}`, patch: { method: undefined }, gain: sum(data?.facets.method) });
-  if (q.q) out.push({ text: `Search without the words “${q.q}”`, patch: { q: undefined } });
-  if (q.cwlMin || q.cwlMax) out.push({ text: 'Remove the CWL range', patch: { cwlMin: undefined, cwlMax: undefined } });
-  if (q.peakMin) out.push({ text: `Accept a peak below ${pct(q.peakMin)}`, patch: { peakMin: undefined } });
-  if (q.aoiMin || q.aoiMax) out.push({ text: 'Any measurement AOI', patch: { aoiMin: undefined, aoiMax: undefined } });
-  if (q.fieldAngleDeg) out.push({ text: 'Look on axis (field angle 0°)', patch: { fieldAngleDeg: undefined } });
-  if (q.contributor) out.push({ text: 'Curves from every contributor', patch: { contributor: undefined } });
-  return out;
-}
-
+/**
+ * What an empty search is nearest to, as the server counted it (GET /api/curves `nearest`): the best
+ * line throughput on the optic, and each relaxation with the number of curves it would find.
+ */
 export function EmptyState(props: { query: Query; data: SearchResponse | undefined; onChange: (p: Patch) => void; hrefFor: (p: Patch) => string }) {
-  const list = suggestions(props.query, props.data);
+  const nearest = props.data?.nearest;
+  const found = nearest?.relaxations.filter((r) => r.total > 0) ?? [];
+  const none = nearest?.relaxations.filter((r) => r.total === 0) ?? [];
+  const anyFilter = Object.keys(props.query).some((k) => !['page', 'pageSize', 'sort', 'dir', 'sky'].includes(k));
   return (
     <div className="rounded-card border border-dashed border-rule bg-panel px-5 py-6" data-testid="empty-state">
       <h2 className="font-medium">No curve matches every filter.</h2>
-      {list.length ? (
+      {nearest?.bestThroughput !== undefined ? (
+        <p className="mt-1 text-sm" data-testid="best-throughput">
+          On this optic the best curve of the search keeps <strong className="figures">{pct(nearest.bestThroughput)}</strong> of the line.
+        </p>
+      ) : null}
+      {found.length ? (
         <>
-          <p className="mt-1 text-sm text-muted">Loosen one of these:</p>
-          <ul className="mt-3 space-y-1.5 text-sm">
-            {list.map((s) => (
-              <li key={s.text}>
+          <p className="mt-1 text-sm text-muted">The nearest answers:</p>
+          <ul className="mt-3 space-y-1.5 text-sm" data-testid="relaxations">
+            {found.map((r) => (
+              <li key={r.label}>
                 <a
-                  href={props.hrefFor(s.patch)}
+                  href={props.hrefFor(patchOf(r.params))}
                   onClick={(e) => {
                     e.preventDefault();
-                    props.onChange(s.patch);
+                    props.onChange(patchOf(r.params));
                   }}
                   className="text-accent underline-offset-4 hover:underline"
                 >
-                  {s.text}
+                  {r.label}
                 </a>
-                {s.gain ? <span className="figures ml-2 text-xs text-muted">{s.gain} curve{s.gain === 1 ? '' : 's'}</span> : null}
+                <span className="figures ml-2 text-xs text-muted" data-testid="relaxation-total">
+                  {r.total.toLocaleString('en-US')} curve{r.total === 1 ? '' : 's'}
+                </span>
               </li>
             ))}
           </ul>
         </>
-      ) : (
-        <p className="mt-1 text-sm text-muted">The catalogue holds no verified curves yet.</p>
-      )}
+      ) : null}
+      {none.length ? (
+        <p className="mt-3 text-xs text-muted">
+          Would still find nothing: {none.map((r) => r.label).join('; ')}.
+        </p>
+      ) : null}
+      {!anyFilter ? <p className="mt-1 text-sm text-muted">The catalogue holds no verified curves yet.</p> : null}
     </div>
   );
 }

@@ -3,7 +3,9 @@
 import { useId, useState, type ReactNode } from 'react';
 import { LINE_IDS, INSTRUMENTS } from '@/lib/schemas/submission';
 import { FWHM_BUCKETS, bucketKey } from '@/lib/catalogue/search-params';
-import { INSTRUMENT_NAMES, bucketLabel, bucketRange, lineName } from './labels';
+import { readQuantity } from '@/lib/catalogue/quantities';
+import type { LimitedParam } from '@/lib/catalogue/limits';
+import { INSTRUMENT_NAMES, bucketLabel, lineName } from './labels';
 import type { Facet, OpticChoice, Query } from './types';
 
 type Patch = Record<string, string | undefined>;
@@ -21,37 +23,46 @@ function Section({ title, children, id }: { title: string; children: ReactNode; 
   );
 }
 
-/** A number field that commits on Enter or when it loses focus, so typing does not fire a search per key. */
+/**
+ * A number field that commits on Enter or when it loses focus, so typing does not fire a search per key.
+ * It reads what people type ("f/2", "80 %", "40" for a 0.40 obstruction, "50 Å") by the rule the search
+ * box and the API use (quantities.ts), and says at the field what it cannot use.
+ */
 function NumberInput(props: {
   label: string;
   value: string | undefined;
   onCommit: (v: string | undefined) => void;
   suffix?: string;
   placeholder?: string;
-  step?: string;
-  min?: number;
-  max?: number;
-  name: string;
+  name: LimitedParam;
   /** The URL holds fractions; the field shows percent. */
   percent?: boolean;
+  /** What the server said is wrong with this parameter. */
+  error?: string;
 }) {
   const id = useId();
   const shown = (v: string | undefined) => (v === undefined || v === '' ? '' : props.percent ? String(Number((Number(v) * 100).toPrecision(6))) : v);
   const [text, setText] = useState(shown(props.value));
+  const [problem, setProblem] = useState<string | null>(null);
   // When the URL changes the value (back button, "clear all"), the field follows it.
   const [seen, setSeen] = useState(props.value);
   if (seen !== props.value) {
     setSeen(props.value);
     setText(shown(props.value));
+    setProblem(null);
   }
   const commit = () => {
     const t = text.trim();
-    if (t === shown(props.value)) return;
-    if (t === '') return props.onCommit(undefined);
-    const n = Number(t.replace(',', '.'));
-    if (!Number.isFinite(n)) return setText(shown(props.value));
-    props.onCommit(props.percent ? String(Number((n / 100).toPrecision(6))) : String(n));
+    if (t === shown(props.value)) return setProblem(null);
+    const r = readQuantity(props.name, t, { percentField: props.percent });
+    if (r.error) return setProblem(r.error);
+    setProblem(null);
+    const next = r.value === null ? undefined : String(r.value);
+    // "f/2" for a field holding 2: the same search, but the field shows the number it uses
+    if (next === props.value) return setText(shown(props.value));
+    props.onCommit(next);
   };
+  const message = problem ?? props.error ?? null;
   return (
     <div className="min-w-0">
       <label htmlFor={id} className="block text-xs text-muted">
@@ -61,7 +72,7 @@ function NumberInput(props: {
         <input
           id={id}
           name={props.name}
-          inputMode="decimal"
+          inputMode="text"
           value={text}
           placeholder={props.placeholder}
           onChange={(e) => setText(e.target.value)}
@@ -72,10 +83,17 @@ function NumberInput(props: {
               commit();
             }
           }}
-          className="figures w-full min-w-0 rounded-l-card border border-rule bg-panel px-2 py-1 text-right text-sm"
+          aria-invalid={message ? true : undefined}
+          aria-describedby={message ? `${id}-error` : undefined}
+          className={`figures w-full min-w-0 rounded-l-card border bg-panel px-2 py-1 text-right text-sm ${message ? 'border-bad' : 'border-rule'} ${props.suffix ? '' : 'rounded-r-card'}`}
         />
         {props.suffix ? <span className="flex items-center rounded-r-card border border-l-0 border-rule px-1.5 text-xs text-muted">{props.suffix}</span> : null}
       </div>
+      {message ? (
+        <p id={`${id}-error`} role="alert" className="mt-0.5 text-xs text-bad" data-testid={`field-error-${props.name}`}>
+          {message}
+        </p>
+      ) : null}
     </div>
   );
 }
@@ -97,15 +115,19 @@ export function FilterPanel(props: {
   isModerator: boolean;
   signedIn: boolean;
   onChange: (patch: Patch) => void;
+  /** Per parameter, what the server refused. */
+  errors?: Record<string, string>;
 }) {
   const { query: q, facets, onChange } = props;
+  const err = (k: string) => props.errors?.[k];
   const set = (k: string) => (v: string | undefined) => onChange({ [k]: v });
   const fitnessOn = !!q.fNumber;
   const activeOptic = props.optics.find(
     (o) => String(o.fNumber) === q.fNumber && String(o.obstruction) === (q.obstruction ?? '0') && String(o.fieldAngleDeg) === (q.fieldAngleDeg ?? '0'),
   );
   const lineKeys = LINE_IDS.filter((id) => count(facets?.line, id) > 0 || q.line === id);
-  const bucketKeys = FWHM_BUCKETS.map(bucketKey).filter((k) => count(facets?.fwhm, k) > 0);
+  const chosen = (q.fwhmBucket ?? '').split(',').filter(Boolean);
+  const bucketKeys = FWHM_BUCKETS.map(bucketKey).filter((k) => count(facets?.fwhm, k) > 0 || chosen.includes(k));
 
   return (
     <div className="space-y-4" data-testid="filter-panel">
@@ -153,23 +175,24 @@ export function FilterPanel(props: {
           </div>
         ) : null}
         <div className="grid grid-cols-2 gap-2">
-          <NumberInput name="fNumber" label="f-number" value={q.fNumber} onCommit={set('fNumber')} placeholder="e.g. 2.5" />
-          <NumberInput name="obstruction" label="Obstruction" value={q.obstruction} onCommit={set('obstruction')} placeholder="e.g. 0.36" />
-          <NumberInput name="nEff" label="Effective index" value={q.nEff} onCommit={set('nEff')} placeholder="own/2.0" />
-          <NumberInput name="fieldAngleDeg" label="Field angle" value={q.fieldAngleDeg} onCommit={set('fieldAngleDeg')} suffix="°" placeholder="0" />
+          <NumberInput name="fNumber" error={err('fNumber')} label="f-number" value={q.fNumber} onCommit={set('fNumber')} placeholder="e.g. 2.5" />
+          <NumberInput name="obstruction" error={err('obstruction')} label="Obstruction" value={q.obstruction} onCommit={set('obstruction')} placeholder="e.g. 0.36" />
+          <NumberInput name="nEff" error={err('nEff')} label="Effective index" value={q.nEff} onCommit={set('nEff')} placeholder="own/2.0" />
+          <NumberInput name="fieldAngleDeg" error={err('fieldAngleDeg')} label="Field angle" value={q.fieldAngleDeg} onCommit={set('fieldAngleDeg')} suffix="°" placeholder="0" />
         </div>
-        <NumberInput name="minThroughput" label="Keeps at least" value={q.minThroughput} onCommit={set('minThroughput')} suffix="% of the line" percent placeholder="e.g. 85" />
+        <NumberInput name="minThroughput" error={err('minThroughput')} label="Keeps at least" value={q.minThroughput} onCommit={set('minThroughput')} suffix="% of the line" percent placeholder="e.g. 85" />
         <p className="text-xs text-muted">Without an effective index each curve uses its own fitted value, else 2.0.</p>
       </Section>
 
       <Section title="FWHM" id="fwhm">
         <div className="space-y-0.5">
           {bucketKeys.map((k) => {
-            const r = bucketRange(k);
-            const on = (q.fwhmMin ?? '') === r.fwhmMin && (q.fwhmMax ?? '') === r.fwhmMax;
+            const on = chosen.includes(k);
+            // several buckets at once (fwhmBucket=2-3&fwhmBucket=3-4): curves in any of them
+            const next = on ? chosen.filter((x) => x !== k) : [...chosen, k];
             return (
-              <label key={k} className="flex cursor-pointer items-center gap-2 rounded px-1 py-0.5 text-sm hover:bg-accent/5">
-                <input type="checkbox" checked={on} onChange={() => onChange(on ? { fwhmMin: undefined, fwhmMax: undefined } : { fwhmMin: r.fwhmMin, fwhmMax: r.fwhmMax || undefined })} className="accent-[rgb(var(--c-accent))]" />
+              <label key={k} className="flex cursor-pointer items-center gap-2 rounded px-1 py-0.5 text-sm hover:bg-accent/5" data-testid={`fwhm-bucket-${k}`}>
+                <input type="checkbox" name="fwhmBucket" value={k} checked={on} onChange={() => onChange({ fwhmBucket: next.length ? FWHM_BUCKETS.map(bucketKey).filter((x) => next.includes(x)).join(',') : undefined })} className="accent-[rgb(var(--c-accent))]" />
                 <span className="figures flex-1">{bucketLabel(k)}</span>
                 <span className="figures text-xs text-muted">{count(facets?.fwhm, k)}</span>
               </label>
@@ -177,20 +200,20 @@ export function FilterPanel(props: {
           })}
         </div>
         <div className="grid grid-cols-2 gap-2">
-          <NumberInput name="fwhmMin" label="From" value={q.fwhmMin} onCommit={set('fwhmMin')} suffix="nm" />
-          <NumberInput name="fwhmMax" label="To" value={q.fwhmMax} onCommit={set('fwhmMax')} suffix="nm" />
+          <NumberInput name="fwhmMin" error={err('fwhmMin')} label="From" value={q.fwhmMin} onCommit={set('fwhmMin')} suffix="nm" />
+          <NumberInput name="fwhmMax" error={err('fwhmMax')} label="To" value={q.fwhmMax} onCommit={set('fwhmMax')} suffix="nm" />
         </div>
       </Section>
 
       <Section title="CWL" id="cwl">
         <div className="grid grid-cols-2 gap-2">
-          <NumberInput name="cwlMin" label="From" value={q.cwlMin} onCommit={set('cwlMin')} suffix="nm" />
-          <NumberInput name="cwlMax" label="To" value={q.cwlMax} onCommit={set('cwlMax')} suffix="nm" />
+          <NumberInput name="cwlMin" error={err('cwlMin')} label="From" value={q.cwlMin} onCommit={set('cwlMin')} suffix="nm" />
+          <NumberInput name="cwlMax" error={err('cwlMax')} label="To" value={q.cwlMax} onCommit={set('cwlMax')} suffix="nm" />
         </div>
       </Section>
 
       <Section title="Peak transmission" id="peak">
-        <NumberInput name="peakMin" label="At least" value={q.peakMin} onCommit={set('peakMin')} suffix="%" percent />
+        <NumberInput name="peakMin" error={err('peakMin')} label="At least" value={q.peakMin} onCommit={set('peakMin')} suffix="%" percent />
       </Section>
 
       <Section title="Test method" id="method">
@@ -201,8 +224,8 @@ export function FilterPanel(props: {
           ))}
         </div>
         <div className="grid grid-cols-2 gap-2">
-          <NumberInput name="aoiMin" label="Measured AOI from" value={q.aoiMin} onCommit={set('aoiMin')} suffix="°" />
-          <NumberInput name="aoiMax" label="to" value={q.aoiMax} onCommit={set('aoiMax')} suffix="°" />
+          <NumberInput name="aoiMin" error={err('aoiMin')} label="Measured AOI from" value={q.aoiMin} onCommit={set('aoiMin')} suffix="°" />
+          <NumberInput name="aoiMax" error={err('aoiMax')} label="to" value={q.aoiMax} onCommit={set('aoiMax')} suffix="°" />
         </div>
       </Section>
 

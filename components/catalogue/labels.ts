@@ -36,8 +36,25 @@ export function bucketLabel(key: string): string {
   return `${a}–${b} nm`;
 }
 
-export function bucketRange(key: string): { fwhmMin: string; fwhmMax: string } {
-  if (key.endsWith('+')) return { fwhmMin: key.slice(0, -1), fwhmMax: '' };
-  const [a, b] = key.split('-');
-  return { fwhmMin: a, fwhmMax: b };
+
+/** A chip for what the search box's words were read as (read-query.ts). */
+export function understoodLabel(u: { kind: string; params: Record<string, string | number | undefined> }): string {
+  const p = u.params;
+  const pc = (v: string | number | undefined) => `${Number((Number(v) * 100).toPrecision(4))} %`;
+  switch (u.kind) {
+    case 'line':
+      return lineName(String(p.line));
+    case 'width':
+      return `FWHM ${p.fwhmMin}–${p.fwhmMax} nm`;
+    case 'cwl':
+      return `CWL ${p.cwlMin}–${p.cwlMax} nm`;
+    case 'optic':
+      return `f/${p.fNumber}`;
+    case 'obstruction':
+      return `obstruction ${pc(p.obstruction)}`;
+    case 'threshold':
+      return p.minThroughput !== undefined ? `keeps ≥ ${pc(p.minThroughput)} of the line` : `peak ≥ ${pc(p.peakMin)}`;
+    default:
+      return u.kind;
+  }
 }

@@ -21,7 +21,7 @@ import { LINE_IDS } from '@/lib/engine/lines';
 import { INSTRUMENTS } from '@/lib/engine/limits';
 import { publicCatalogueSql } from '@/lib/auth/policy';
 import { FINE_INTERVALS, LEVEL_LENGTH, LEVEL_STEPS } from './fitness-grid';
-import { FWHM_BUCKETS } from './search-params';
+import { FWHM_EDGES } from './filters';
 import { fitnessCacheBytes } from './cache-budget';
 
 /** One level of the fitness grid for one line: the stored running sums (LEVEL_LENGTH per row), as in curve_fitness. */
@@ -87,12 +87,10 @@ const state = globalThis as unknown as { bandconeCatalogueCopy?: Promise<Snapsho
 /** How the copy has been kept up to date in this process (tests read it). */
 export const copyStats = { fullLoads: 0, patches: 0 };
 
-const EDGES = FWHM_BUCKETS.slice(1).map(([a]) => a);
-
 /** PostgreSQL's width_bucket(x, edges): how many edges are ≤ x. */
 export function widthBucket(x: number): number {
   let k = 0;
-  while (k < EDGES.length && EDGES[k] <= x) k++;
+  while (k < FWHM_EDGES.length && FWHM_EDGES[k] <= x) k++;
   return k;
 }
 
@@ -174,7 +172,10 @@ function fillRow(s: Snapshot, i: number, r: SnapshotRow, names: ReturnType<typeo
   s.peak[i] = r.peak ?? NaN;
   s.aoi[i] = r.aoi ?? NaN;
   s.verifiedAt[i] = r.verified ?? NaN;
-  s.instrument[i] = Math.max(0, (INSTRUMENTS as readonly string[]).indexOf(r.instrument));
+  const instrument = (INSTRUMENTS as readonly string[]).indexOf(r.instrument);
+  // counted as another instrument it would put a wrong number in the facets
+  if (instrument < 0) throw new Error(`curve ${r.id}: instrument "${r.instrument}" is not one the catalogue knows (${INSTRUMENTS.join(', ')})`);
+  s.instrument[i] = instrument;
   s.contributor[i] = names.contributor(r.contributor);
   const l = names.lineSet(r.lines);
   s.lineSet[i] = l;

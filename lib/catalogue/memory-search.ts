@@ -18,6 +18,7 @@ import { FINE_INTERVALS, LEVEL_LENGTH, SCALE, applyOffNormal, offNormalCoefficie
 import { curvePointsByIds } from './points';
 import { catalogueCopy, dropCatalogueCopy, fineBlock, gridBlock, StaleCopy, type FineBlock, type GridBlock, type Snapshot } from './memory-index';
 import { hasFitness, type SearchParams, type Sort } from './search-params';
+import { activeFilters, bucketIndex, groupKey, groupOf, GROUPS_PER_LINE_SET, nullsFirst, PACKING, SORT_COLUMNS, type Filter } from './filters';
 
 export type CountGroup = { instrument: string; bucket: number | null; lines: string[]; pf: boolean; n: string };
 
@@ -68,23 +69,20 @@ async function run(s: Snapshot, p: SearchParams & { fNumber: number }, w: Weight
   const n = s.n;
   const needTau = p.minThroughput !== undefined || sort === 'throughput';
   const namedLine = p.line ? (LINE_IDS as readonly string[]).indexOf(p.line) : -1;
-  const method = p.method ? (INSTRUMENTS as readonly string[]).indexOf(p.method) : -1;
 
-  // The filters every facet keeps, once per curve. Written out flat over local typed arrays:
-  // this loop and the two below run over 100 000 curves per search.
-  const { cwl, fwhm, peak, aoi, contributor, firstLine, lineMask, instrument, fwhmBucket } = s;
-  const who = p.contributor ? s.contributors.indexOf(p.contributor) : -2;
-  const [cwlLo, cwlHi, peakLo, aoiLo, aoiHi] = [p.cwlMin, p.cwlMax, p.peakMin, p.aoiMin, p.aoiMax];
+  // The filter table (filters.ts) as tests over the copy: those every facet keeps, once per curve here;
+  // the line, method and FWHM ones below, where the facets count without them.
+  const tests = activeFilters(p).map((f) => ({ facet: f.facet, test: testOf(f, p, s) }));
+  const common = tests.filter((t) => t.facet === null).map((t) => t.test);
+  const widthTests = tests.filter((t) => t.facet === 'fwhm').map((t) => t.test);
+  const lineAndMethod = tests.filter((t) => t.facet === 'line' || t.facet === 'method').map((t) => t.test);
+  const all = (list: ((i: number) => boolean)[], i: number) => {
+    for (let k = 0; k < list.length; k++) if (!list[k](i)) return false;
+    return true;
+  };
+  const { aoi, firstLine, instrument, fwhmBucket } = s;
   const mask = new Uint8Array(n);
-  for (let i = 0; i < n; i++) {
-    if (cwlLo !== undefined && !(cwl[i] >= cwlLo)) continue;
-    if (cwlHi !== undefined && !(cwl[i] <= cwlHi)) continue;
-    if (peakLo !== undefined && !(peak[i] >= peakLo)) continue;
-    if (aoiLo !== undefined && !(aoi[i] >= aoiLo)) continue;
-    if (aoiHi !== undefined && !(aoi[i] <= aoiHi)) continue;
-    if (who !== -2 && contributor[i] !== who) continue;
-    mask[i] = 1;
-  }
+  for (let i = 0; i < n; i++) if (all(common, i)) mask[i] = 1;
 
   let tau: Float64Array | null = null;
   if (needTau) {
@@ -156,22 +154,21 @@ async function run(s: Snapshot, p: SearchParams & { fNumber: number }, w: Weight
   }
 
   // facet groups as in search.ts's facet statement: (line set, FWHM bucket, instrument, FWHM filter holds)
-  const counts = new Int32Array(s.lineSets.length * 256);
+  const counts = new Int32Array(s.lineSets.length * GROUPS_PER_LINE_SET);
   const candidates: number[] = [];
-  const [fLo, fHi, minT] = [p.fwhmMin, p.fwhmMax, p.minThroughput];
-  const lineBit = namedLine >= 0 ? 1 << namedLine : 0;
+  const minT = p.minThroughput;
   for (let i = 0; i < n; i++) {
     if (!mask[i]) continue;
     if (minT !== undefined && !(tau![i] >= minT)) continue;
-    const pf = (fLo === undefined || fwhm[i] >= fLo) && (fHi === undefined || fwhm[i] <= fHi);
-    counts[((s.lineSet[i] * 16 + fwhmBucket[i]) * 8 + instrument[i]) * 2 + (pf ? 1 : 0)]++;
-    if (pf && (lineBit === 0 || (lineMask[i] & lineBit) !== 0) && (method < 0 || instrument[i] === method)) candidates.push(i);
+    const pf = all(widthTests, i);
+    counts[groupKey(s.lineSet[i], fwhmBucket[i], instrument[i], pf)]++;
+    if (pf && all(lineAndMethod, i)) candidates.push(i);
   }
   const groups: CountGroup[] = [];
   counts.forEach((count, key) => {
     if (count === 0) return;
-    const bucket = Math.floor(key / 16) % 16;
-    groups.push({ instrument: INSTRUMENTS[Math.floor(key / 2) % 8], bucket: bucket === 0 ? null : bucket - 1, lines: s.lineSets[Math.floor(key / 256)], pf: key % 2 === 1, n: String(count) });
+    const g = groupOf(key);
+    groups.push({ instrument: INSTRUMENTS[g.instrument], bucket: g.bucket === 0 ? null : g.bucket - 1, lines: s.lineSets[g.lineSet], pf: g.pf, n: String(count) });
   });
 
   const top = firstInOrder(candidates, page * pageSize, comparator(s, sort, dir, tau));
@@ -194,35 +191,52 @@ async function exactFromPoints(s: Snapshot, p: SearchParams & { fNumber: number 
   }
 }
 
-/** The ORDER BY of search.ts (orderBy) over the copy: NULLs last except the oldest-first order, ties by id. */
+/** One row of the filter table (filters.ts) as a test of copy row i; NaN (NULL) never passes a comparison, as in SQL. */
+function testOf(f: Filter, p: SearchParams, s: Snapshot): (i: number) => boolean {
+  switch (f.operator) {
+    case '>=': {
+      const v = s[f.field];
+      const x = p[f.param]!;
+      return (i) => v[i] >= x;
+    }
+    case '<=': {
+      const v = s[f.field];
+      const x = p[f.param]!;
+      return (i) => v[i] <= x;
+    }
+    case '=': {
+      const v = s[f.field];
+      const x = f.param === 'method' ? (INSTRUMENTS as readonly string[]).indexOf(p.method!) : s.contributors.indexOf(p.contributor!);
+      return (i) => v[i] === x;
+    }
+    case 'has': {
+      const bit = 1 << (LINE_IDS as readonly string[]).indexOf(p.line!);
+      const v = s[f.field];
+      return (i) => (v[i] & bit) !== 0;
+    }
+    case 'bucket-in': {
+      // the copy keeps 1 + width_bucket, 0 for an unknown FWHM
+      const allowed = new Uint8Array(PACKING.bucketSlots);
+      for (const key of p.fwhmBucket ?? []) allowed[bucketIndex(key) + 1] = 1;
+      const v = s[f.field];
+      return (i) => allowed[v[i]] === 1;
+    }
+  }
+}
+
+/** The ORDER BY of search.ts (orderBy) over the copy, from the same sort table; ties by id. */
 function comparator(s: Snapshot, sort: Sort, dir: 'asc' | 'desc', tau: Float64Array | null): (a: number, b: number) => number {
   const desc = dir === 'desc';
-  let vals: Float64Array;
-  let nullsFirst = false;
-  switch (sort) {
-    case 'cwl':
-      vals = s.cwl;
-      break;
-    case 'fwhm':
-      vals = s.fwhm;
-      break;
-    case 'peak':
-      vals = s.peak;
-      break;
-    case 'throughput':
-      vals = tau!;
-      break;
-    default:
-      // relevance without words is newest first
-      vals = s.verifiedAt;
-      nullsFirst = !desc;
-  }
+  // relevance without words is newest first; throughput (and contrast's candidates) put NULL last
+  const column = SORT_COLUMNS[sort] ?? (sort === 'relevance' ? SORT_COLUMNS.newest : undefined);
+  const vals = column ? s[column.field] : tau!;
+  const first = column ? nullsFirst(column.nulls, dir) : false;
   return (a, b) => {
     const x = vals[a];
     const y = vals[b];
     const xn = Number.isNaN(x);
     const yn = Number.isNaN(y);
-    if (xn !== yn) return (xn ? 1 : -1) * (nullsFirst ? -1 : 1);
+    if (xn !== yn) return (xn ? 1 : -1) * (first ? -1 : 1);
     if (!xn && x !== y) return desc ? (y > x ? 1 : -1) : x > y ? 1 : -1;
     return desc ? s.ids[b] - s.ids[a] : s.ids[a] - s.ids[b];
   };

@@ -6,8 +6,10 @@
 
 import { z } from '@/lib/schemas/zod';
 import { LINE_IDS } from '@/lib/engine/lines';
-import { INSTRUMENTS, REQUEST_LIMITS as L } from '@/lib/engine/limits';
+import { INSTRUMENTS } from '@/lib/engine/limits';
 import { marginalRayDeg } from '@/lib/engine/pupil';
+import { NUMBER_LIMITS, type LimitedParam } from './limits';
+import { readQuantity } from './quantities';
 
 export const SORTS = ['relevance', 'cwl', 'fwhm', 'peak', 'throughput', 'newest', 'contrast'] as const;
 /** Sky models the contrast sort accepts (lib/engine/sky.ts). */
@@ -22,16 +24,34 @@ export const DEFAULT_DIR: Record<Sort, 'asc' | 'desc'> = {
   relevance: 'desc', cwl: 'asc', fwhm: 'asc', peak: 'desc', throughput: 'desc', newest: 'desc', contrast: 'desc',
 };
 
-// Query strings carry text: an empty value means "not set", anything else must read as a number.
-const num = (what: string, min: number, max: number, unit = '') =>
-  z.preprocess(
-    (v) => (v === '' || v === undefined || v === null ? undefined : typeof v === 'string' ? Number(v.trim()) : v),
-    z
-      .number({ error: `${what} must be a number` })
-      .refine(Number.isFinite, `${what} must be a finite number`)
-      .refine((v) => v >= min && v <= max, `${what} must be between ${min} and ${max}${unit}`)
-      .optional(),
-  ).describe(`${min}–${max}${unit}`);
+/** FWHM facet buckets, nm: [from, to). */
+export const FWHM_BUCKETS: readonly [number, number | null][] = [
+  [0, 1], [1, 2], [2, 3], [3, 4], [4, 5], [5, 7], [7, 10], [10, 15], [15, 30], [30, null],
+];
+
+export function bucketKey([a, b]: readonly [number, number | null]): string {
+  return b === null ? `${a}+` : `${a}-${b}`;
+}
+
+const BUCKET_KEYS = FWHM_BUCKETS.map(bucketKey) as [string, ...string[]];
+
+// Query strings carry text: an empty value means "not set", anything else is read as the number fields
+// read it (quantities.ts: "f/2", "85 %", "5 nm", "50 Å"; a bare number in the parameter's own unit).
+const num = (param: LimitedParam) => {
+  const l = NUMBER_LIMITS[param];
+  return z
+    .preprocess((v, ctx) => {
+      if (v === '' || v === undefined || v === null) return undefined;
+      if (typeof v !== 'string') return v;
+      const r = readQuantity(param, v);
+      if (r.error) {
+        ctx.addIssue({ code: 'custom', message: r.error, input: v });
+        return z.NEVER;
+      }
+      return r.value ?? undefined;
+    }, z.number({ error: `${param} must be a number` }).refine(Number.isFinite, `${param} must be a finite number`).refine((v) => v >= l.min && v <= l.max, `${l.label} must be between ${l.min} and ${l.max}${l.unit}`).optional())
+    .describe(`${l.min}–${l.max}`);
+};
 
 const text = (max: number) =>
   z.preprocess((v) => (typeof v === 'string' ? v.trim() || undefined : v), z.string().max(max, `at most ${max} characters`).optional());
@@ -43,21 +63,29 @@ export const searchParamsSchema = z
   .object({
     q: text(200),
     line: choice(LINE_IDS, 'line'),
-    cwlMin: num('cwlMin', 100, 3000, ' nm'),
-    cwlMax: num('cwlMax', 100, 3000, ' nm'),
-    fwhmMin: num('fwhmMin', 0, 500, ' nm'),
-    fwhmMax: num('fwhmMax', 0, 500, ' nm'),
-    peakMin: num('peakMin', 0, 1, ' (a fraction, 0.9 for 90 %)'),
+    cwlMin: num('cwlMin'),
+    cwlMax: num('cwlMax'),
+    fwhmMin: num('fwhmMin'),
+    fwhmMax: num('fwhmMax'),
+    // repeatable (fwhmBucket=2-3&fwhmBucket=3-4) or comma-separated: curves in any of the buckets
+    fwhmBucket: z.preprocess(
+      (v) => {
+        const list = (Array.isArray(v) ? v : typeof v === 'string' ? [v] : []).flatMap((x) => String(x).split(',')).map((x) => x.trim()).filter(Boolean);
+        return list.length ? [...new Set(list)] : undefined;
+      },
+      z.array(z.enum(BUCKET_KEYS, { error: `fwhmBucket must be one of ${BUCKET_KEYS.join(', ')}` })).max(BUCKET_KEYS.length).optional(),
+    ),
+    peakMin: num('peakMin'),
     method: choice(INSTRUMENTS, 'method'),
-    aoiMin: num('aoiMin', ...L.measuredAoiDeg, '°'),
-    aoiMax: num('aoiMax', ...L.measuredAoiDeg, '°'),
+    aoiMin: num('aoiMin'),
+    aoiMax: num('aoiMax'),
     status: choice(STATUS_FILTERS, 'status'),
     contributor: z.preprocess((v) => (v === '' ? undefined : v), z.uuid({ error: 'contributor must be a contributor id' }).optional()),
-    fNumber: num('fNumber', ...L.fNumber),
-    obstruction: num('obstruction', 0, 0.9, ' (a diameter ratio)'),
-    nEff: num('nEff', ...L.nEff),
-    fieldAngleDeg: num('fieldAngleDeg', ...L.fieldAngleDeg, '°'),
-    minThroughput: num('minThroughput', 0, 1, ' (a fraction, 0.85 for 85 %)'),
+    fNumber: num('fNumber'),
+    obstruction: num('obstruction'),
+    nEff: num('nEff'),
+    fieldAngleDeg: num('fieldAngleDeg'),
+    minThroughput: num('minThroughput'),
     sort: choice(SORTS, 'sort'),
     sky: choice(SKY_MODEL_IDS, 'sky'),
     dir: choice(['asc', 'desc'] as const, 'dir'),
@@ -96,11 +124,14 @@ export const searchParamsSchema = z
 
 export type SearchParams = z.output<typeof searchParamsSchema>;
 
+/** Parameters that may be given more than once. */
+export const REPEATABLE: readonly string[] = ['fwhmBucket'];
+
 /** Parses a query string; zod errors become a 422 through withErrors. */
-export function parseSearchParams(params: URLSearchParams | Record<string, string | undefined>): SearchParams {
-  const raw: Record<string, string> = {};
-  if (params instanceof URLSearchParams) params.forEach((v, k) => (raw[k] = v));
-  else for (const [k, v] of Object.entries(params)) if (typeof v === 'string') raw[k] = v;
+export function parseSearchParams(params: URLSearchParams | Record<string, string | string[] | undefined>): SearchParams {
+  const raw: Record<string, string | string[]> = {};
+  if (params instanceof URLSearchParams) params.forEach((v, k) => (raw[k] = REPEATABLE.includes(k) ? params.getAll(k) : v));
+  else for (const [k, v] of Object.entries(params)) if (typeof v === 'string' || (Array.isArray(v) && REPEATABLE.includes(k))) raw[k] = v;
   return searchParamsSchema.parse(raw);
 }
 
@@ -120,11 +151,3 @@ export function toQueryString(p: Partial<Record<keyof SearchParams, string | num
   return u.toString();
 }
 
-/** FWHM facet buckets, nm: [from, to). */
-export const FWHM_BUCKETS: readonly [number, number | null][] = [
-  [0, 1], [1, 2], [2, 3], [3, 4], [4, 5], [5, 7], [7, 10], [10, 15], [15, 30], [30, null],
-];
-
-export function bucketKey([a, b]: readonly [number, number | null]): string {
-  return b === null ? `${a}+` : `${a}-${b}`;
-}

@@ -15,6 +15,9 @@ import { findLine } from '@/lib/engine/lines';
 import { buildPupil, type Pupil } from '@/lib/engine/pupil';
 import { defaultNEff, fineSliceSql, fitnessSql, fitnessWeights, frameSql, offNormalThroughput, opticOf, type FitnessQuery, type Weights } from './fitness-grid';
 import { DEFAULT_DIR, DEFAULT_PAGE_SIZE, FWHM_BUCKETS, bucketKey, hasFitness, type SearchParams, type Sort } from './search-params';
+import { activeFilters, bucketIndex, FWHM_BUCKET_SQL, SORT_COLUMNS, nullsFirst, type FacetName, type Filter } from './filters';
+import { readSearchWords, type Understood } from './read-query';
+import { nearestAnswers, type Nearest } from './nearest';
 import { and, MARK_END, MARK_START, snippetHtml, SqlParts } from './sql';
 import { sparklineOf } from './sparkline';
 import { cachedCounts } from './count-cache';
@@ -64,6 +67,11 @@ export interface SearchResult {
   fitness?: { lineId: string | null; fNumber: number; obstruction: number; nEff: number | null; fieldAngleDeg: number; gridLevel: number };
   /** How the contrast sort was answered (sort=contrast only). */
   contrast?: { sky: string; referenceBoxNm: number; candidates: number; note: string };
+  /** With `q`: the filters read from its words (read-query.ts) and the words left for the full-text search. */
+  understood?: Understood[];
+  words?: string;
+  /** When nothing matches: the nearest answers, with the number of curves each finds. */
+  nearest?: Nearest;
 }
 
 /** Integer arrays (the fine level) come back as text and are split here: several times quicker than the driver's array parser. */
@@ -79,6 +87,22 @@ const MAX_EXACT = 5000;
 
 function visibility(actor: Actor | null, p: SearchParams, s: SqlParts): string {
   return searchableCurvesSql(actor, p.status, (v, cast) => s.param(v, cast));
+}
+
+/** One row of the filter table (filters.ts) as SQL. */
+function filterSql(f: Filter, p: SearchParams, s: SqlParts): string {
+  switch (f.operator) {
+    case '>=':
+    case '<=':
+      return `${f.column} ${f.operator} ${s.param(p[f.param])}`;
+    case '=':
+      return `${f.column} = ${s.param(p[f.param], 'cast' in f ? f.cast : '')}`;
+    // = ANY reads the covering index far faster than @> (which would reach the GIN on lines)
+    case 'has':
+      return `${s.param(p[f.param])}::text = ANY(${f.column})`;
+    case 'bucket-in':
+      return `${FWHM_BUCKET_SQL} = ANY(${s.param((p.fwhmBucket ?? []).map(bucketIndex), '::int[]')})`;
+  }
 }
 
 interface Built {
@@ -117,22 +141,14 @@ function clauses(plan: Plan, s: SqlParts, withFitness = true, omit: ('line' | 'm
     common.push(`c.search @@ ${query}`);
     rank = `ts_rank_cd(c.search, ${query})`;
   }
-  if (p.cwlMin !== undefined) common.push(`c.cwl_nm >= ${s.param(p.cwlMin)}`);
-  if (p.cwlMax !== undefined) common.push(`c.cwl_nm <= ${s.param(p.cwlMax)}`);
-  if (p.peakMin !== undefined) common.push(`c.peak_t >= ${s.param(p.peakMin)}`);
-  if (p.aoiMin !== undefined) common.push(`c.aoi_deg >= ${s.param(p.aoiMin)}`);
-  if (p.aoiMax !== undefined) common.push(`c.aoi_deg <= ${s.param(p.aoiMax)}`);
-  if (p.contributor) common.push(`c.contributor_id = ${s.param(p.contributor, '::uuid')}`);
-  // = ANY reads the covering index far faster than @> (which would reach the GIN on lines)
-  const line = p.line && !omit.includes('line') ? `${s.param(p.line)}::text = ANY(c.lines)` : null;
-  const method = p.method && !omit.includes('method') ? `c.instrument = ${s.param(p.method)}` : null;
-  const fwhmParts = omit.includes('fwhm')
-    ? []
-    : ([
-        p.fwhmMin !== undefined ? `c.fwhm_nm >= ${s.param(p.fwhmMin)}` : null,
-        p.fwhmMax !== undefined ? `c.fwhm_nm <= ${s.param(p.fwhmMax)}` : null,
-      ].filter(Boolean) as string[]);
-  const fwhm = fwhmParts.length ? and(fwhmParts) : null;
+  const byFacet: Record<FacetName, string[]> = { line: [], method: [], fwhm: [] };
+  for (const f of activeFilters(p)) {
+    if (f.facet && omit.includes(f.facet)) continue;
+    const sql = filterSql(f, p, s);
+    (f.facet ? byFacet[f.facet] : common).push(sql);
+  }
+  const part = (facet: FacetName) => (byFacet[facet].length ? and(byFacet[facet]) : null);
+  const [line, method, fwhm] = [part('line'), part('method'), part('fwhm')];
 
   let joins = '';
   let tau: string | null = null;
@@ -222,23 +238,21 @@ async function exactWhereGridCannot(plan: Plan, fq: FitnessQuery) {
 function orderBy(sort: Sort, dir: 'asc' | 'desc', b: Built): string {
   const d = dir === 'asc' ? 'ASC' : 'DESC';
   const tie = `c.id ${d}`;
-  // matches curves_catalogue_idx (or its backward scan), so the first page needs no sort
-  const newest = d === 'DESC' ? 'c.verified_at DESC NULLS LAST, c.id DESC' : 'c.verified_at ASC NULLS FIRST, c.id ASC';
+  const by = (key: Sort) => {
+    const c = SORT_COLUMNS[key]!;
+    // 'index' writes no NULLS clause, so the order matches an index (or its backward scan) and the first page needs no sort
+    const nulls = c.nulls === 'index' ? '' : nullsFirst(c.nulls, dir) ? ' NULLS FIRST' : ' NULLS LAST';
+    return `${c.column} ${d}${nulls}, ${tie}`;
+  };
   switch (sort) {
     case 'relevance':
-      return b.rank ? `${b.rank} ${d}, c.verified_at DESC NULLS LAST, c.id DESC` : newest;
-    case 'cwl':
-      return `c.cwl_nm ${d} NULLS LAST, ${tie}`;
-    case 'fwhm':
-      return `c.fwhm_nm ${d} NULLS LAST, ${tie}`;
-    case 'peak':
-      return `c.peak_t ${d}, ${tie}`;
+      return b.rank ? `${b.rank} ${d}, c.verified_at DESC NULLS LAST, c.id DESC` : by('newest');
     case 'throughput':
     // exports of a contrast search keep the throughput order of its candidates (contrast.ts)
     case 'contrast':
       return `${b.tau} ${d} NULLS LAST, ${tie}`;
-    case 'newest':
-      return newest;
+    default:
+      return by(sort);
   }
 }
 
@@ -271,7 +285,8 @@ export interface SearchSql {
 
 /** The order and page a search asks for, with their defaults. */
 function ordering(p: SearchParams) {
-  const sort: Sort = p.sort ?? (p.q ? 'relevance' : 'newest');
+  // with an optic, line throughput is what the reader came for (unless they chose an order)
+  const sort: Sort = p.sort ?? (hasFitness(p) ? 'throughput' : p.q ? 'relevance' : 'newest');
   return { sort, dir: p.dir ?? DEFAULT_DIR[sort], page: p.page ?? 1, pageSize: p.pageSize ?? DEFAULT_PAGE_SIZE };
 }
 
@@ -310,9 +325,8 @@ export async function buildSearchSql(actor: Actor | null, p: SearchParams): Prom
   // FWHM bucket, the lines array, whether the FWHM filter holds), a few dozen groups at most;
   // the counts, each facet leaving out its own filter, are added up from the groups.
   const fb = clauses(pl, new SqlParts(), true, ['line', 'method']);
-  const buckets = `width_bucket(c.fwhm_nm, ARRAY[${FWHM_BUCKETS.slice(1).map(([a]) => a).join(',')}]::float8[])`;
   const facetSql = `
-    SELECT c.instrument, CASE WHEN c.fwhm_nm IS NULL THEN NULL ELSE ${buckets} END AS bucket, c.lines,
+    SELECT c.instrument, CASE WHEN c.fwhm_nm IS NULL THEN NULL ELSE ${FWHM_BUCKET_SQL} END AS bucket, c.lines,
            coalesce(${fb.fwhm ?? 'true'}, false) AS pf, count(*) AS n
     FROM curves c ${fb.joins} WHERE ${and(fb.common)}
     GROUP BY 1, 2, 3, 4`;
@@ -350,12 +364,22 @@ export interface SearchOptions {
   memory?: boolean;
 }
 
-/** A catalogue search, on the read replica when one serves (read-source.ts). */
+/**
+ * A search as the API answers it: the words of `q` read into filters first (read-query.ts), and, when
+ * nothing matches, the nearest answers with true counts (nearest.ts). On the read replica when one
+ * serves (read-source.ts).
+ */
 export function searchCurves(actor: Actor | null, p: SearchParams, options: SearchOptions = {}): Promise<SearchResult> {
-  return readCatalogue(() => search(actor, p, options));
+  return readCatalogue(async () => {
+    const read = readSearchWords(p);
+    const result = await runSearch(actor, read.params, options);
+    const out: SearchResult = p.q ? { ...result, understood: read.understood, words: read.words } : result;
+    if (result.total === 0) out.nearest = await nearestAnswers(read, p.q, (relaxed) => runSearch(actor, relaxed, options));
+    return out;
+  });
 }
 
-async function search(actor: Actor | null, p: SearchParams, options: SearchOptions): Promise<SearchResult> {
+async function runSearch(actor: Actor | null, p: SearchParams, options: SearchOptions): Promise<SearchResult> {
   if (p.sort === 'contrast' && hasFitness(p)) return searchByContrast(actor, p, options);
   if (options.memory !== false && hasFitness(p) && copyServes() && (await answeredInMemory(actor, p))) {
     const fromCopy = await searchCopy(actor, p);
@@ -383,7 +407,7 @@ async function searchByContrast(actor: Actor | null, p: SearchParams & { fNumber
   const pageSize = p.pageSize ?? DEFAULT_PAGE_SIZE;
   const page = p.page ?? 1;
   const dir = p.dir ?? DEFAULT_DIR.contrast;
-  const pool = await search(actor, { ...p, sort: 'throughput', dir: 'desc', page: 1, pageSize: CONTRAST_CANDIDATES }, options);
+  const pool = await runSearch(actor, { ...p, sort: 'throughput', dir: 'desc', page: 1, pageSize: CONTRAST_CANDIDATES }, options);
   const gain = await contrastOf(p, pool.items);
   const ordered = [...pool.items].sort(byContrast(gain, dir));
   const items = ordered.slice((page - 1) * pageSize, page * pageSize).map((i) => ({ ...i, skyGain: gain.get(i.id) ?? null }));
@@ -489,8 +513,8 @@ async function finishPage(p: SearchParams, pupil: Pupil | undefined, items: Sear
 }
 
 /** Ids of every verified curve a search matches, in its order (for exports; no paging). */
-export function matchingVerifiedIds(p: SearchParams, limit: number): Promise<{ ids: number[]; total: number }> {
-  return readCatalogue(() => matchingIds(p, limit));
+export function matchingVerifiedIds(typed: SearchParams, limit: number): Promise<{ ids: number[]; total: number }> {
+  return readCatalogue(() => matchingIds(readSearchWords(typed).params, limit));
 }
 
 async function matchingIds(p: SearchParams, limit: number): Promise<{ ids: number[]; total: number }> {

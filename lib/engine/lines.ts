@@ -96,6 +96,58 @@ export function getLine(id: string): EmissionLine {
   return found;
 }
 
+/**
+ * A line name as people type it, reduced to lower-case letters and digits (Greek letters spelled out as
+ * their Latin initial: Hα → "ha"), so "H-alpha", "Halpha", "Hα" and "[O III]"/"OIII" meet. One pass, no
+ * regular expression.
+ */
+export function squashLineName(text: string): string {
+  let out = '';
+  for (const ch of text.toLowerCase()) {
+    if (ch === 'α') out += 'a';
+    else if (ch === 'β') out += 'b';
+    else if (ch === 'γ') out += 'g';
+    else if ((ch >= 'a' && ch <= 'z') || (ch >= '0' && ch <= '9')) out += ch;
+  }
+  return out;
+}
+
+/**
+ * Names people type for a line, squashed, beyond each line's id and name: spelled-out Greek, and the
+ * ionisation stage as a digit (O3 for [O III], common practice among imagers); a family name means its
+ * strongest member.
+ */
+const LINE_ALIASES: Record<string, string> = {
+  halpha: 'Ha',
+  hydrogenalpha: 'Ha',
+  hbeta: 'Hb',
+  hydrogenbeta: 'Hb',
+  hgamma: 'Hg',
+  o3: 'OIII',
+  sii: 'SII-671',
+  s2: 'SII-671',
+  nii: 'NII-658',
+  n2: 'NII-658',
+  he2: 'HeII',
+  o1: 'OI',
+  ar3: 'ArIII',
+  o2: 'OII',
+};
+
+const BY_NAME = new Map<string, string>();
+for (const l of LINES) {
+  for (const key of [squashLineName(l.id), squashLineName(l.name)]) if (!BY_NAME.has(key)) BY_NAME.set(key, l.id);
+}
+for (const [key, id] of Object.entries(LINE_ALIASES)) BY_NAME.set(key, id);
+
+/** The catalogue line a typed name means (any usual spelling), or undefined. */
+export function lineByName(text: string): EmissionLine | undefined {
+  const exact = BY_ID.get(text.trim());
+  if (exact) return exact;
+  const id = BY_NAME.get(squashLineName(text));
+  return id ? BY_ID.get(id) : undefined;
+}
+
 /** Lines close enough to leak through a filter made for the given one. */
 const NEIGHBOURS: Record<string, string[]> = {
   Ha: ['NII-655', 'NII-658'],

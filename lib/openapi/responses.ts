@@ -41,6 +41,31 @@ export const searchResult = z.looseObject({
   sort: z.string(),
   dir: z.enum(['asc', 'desc']),
   facets: z.looseObject({}),
+  understood: z
+    .array(
+      z.object({
+        kind: z.enum(['line', 'width', 'cwl', 'optic', 'obstruction', 'threshold']),
+        text: z.string().describe('The words it was read from, as typed.'),
+        params: z.record(z.string(), z.union([z.string(), z.number()])).describe('The search parameters it stands for.'),
+        applied: z.boolean().describe('False when an explicit parameter of the same kind took its place, or an obstruction lacks an optic.'),
+      }),
+    )
+    .optional()
+    .describe('With q: the filters read from its words (docs/api.md §Search parameters).'),
+  words: z.string().optional().describe('With q: the words left for the full-text search.'),
+  nearest: z
+    .object({
+      bestThroughput: fraction.optional().describe('Best exact line throughput a curve matching every other filter reaches on the optic.'),
+      relaxations: z.array(
+        z.object({
+          label: z.string(),
+          params: z.record(z.string(), z.string().nullable()).describe('Change to the query string: a value to set, null to remove.'),
+          total: z.number().int().describe('Curves the relaxed search finds, counted by running it.'),
+        }),
+      ),
+    })
+    .optional()
+    .describe('Only when total is 0: the nearest answers.'),
 });
 
 export const curveDetail = z.looseObject({

@@ -16,7 +16,7 @@
  *   need    the line throughput the user needs, % (the verdict says when the error bar straddles it)
  */
 
-import { findLine, LINES } from '@/lib/engine/lines';
+import { findLine, lineByName, LINES } from '@/lib/engine/lines';
 import { REQUEST_LIMITS as L } from '@/lib/engine/limits';
 import type { Mapping } from '@/lib/engine/types';
 import type { StudyOptic, StudySettings, TargetLine } from './types';
@@ -125,27 +125,12 @@ export function checkNumber(field: Limited, text: string): { value: number | nul
   return { value: v };
 }
 
-const squash = (s: string) => s.toLowerCase().replace(/α/g, 'a').replace(/β/g, 'b').replace(/γ/g, 'g').replace(/[^a-z0-9]/g, '');
-
-/** Names people type for a line family, mapped to its strongest member. */
-const LINE_ALIASES: Record<string, string> = {
-  halpha: 'Ha',
-  hbeta: 'Hb',
-  hgamma: 'Hg',
-  sii: 'SII-671',
-  nii: 'NII-658',
-};
-
 /** A catalogue line id (case and punctuation forgiven) or a wavelength in nm. */
 export function readLine(text: string): { value: TargetLine | null; error?: string } {
   const t = text.trim();
   if (t === '') return { value: null };
-  const exact = findLine(t);
-  if (exact) return { value: { id: exact.id } };
-  const key = squash(t);
-  const byName = LINES.find((l) => squash(l.id) === key || squash(l.name) === key);
+  const byName = lineByName(t);
   if (byName) return { value: { id: byName.id } };
-  if (LINE_ALIASES[key]) return { value: { id: LINE_ALIASES[key] } };
   const nm = readNumber(t.replace(/\s*nm$/i, ''));
   if (nm === null) return { value: null, error: `Line “${t}” is neither a catalogue line (${LINES.map((l) => l.id).join(', ')}) nor a wavelength in nm` };
   if (nm < 200 || nm > 2500) return { value: null, error: 'A line wavelength must be between 200 and 2500 nm' };

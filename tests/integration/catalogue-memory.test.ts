@@ -36,6 +36,11 @@ const SEARCHES = [
   'fNumber=5&fieldAngleDeg=12&minThroughput=0.7&method=monochromator&sort=throughput&dir=asc',
   'line=Ha&fNumber=2.5&obstruction=0.36&sort=contrast&sky=suburban',
   'fNumber=3&obstruction=0.2&sort=contrast&sky=led-town&pageSize=7&page=2',
+  // FWHM buckets, several at once and beside a FWHM range (filters.ts: one table for both ways of answering)
+  'fNumber=3&fwhmBucket=2-3&fwhmBucket=3-4&minThroughput=0.3&sort=throughput',
+  'line=Ha&fNumber=2.5&fwhmBucket=5-7&fwhmBucket=3-4&fwhmMax=6&sort=fwhm&dir=asc',
+  'fNumber=2&fwhmBucket=30%2B&fwhmBucket=0-1&sort=cwl',
+  'line=OIII&fNumber=2.2&cwlMin=495&cwlMax=505&aoiMax=0&sort=peak&dir=asc',
 ];
 
 describe('the in-process copy answers fitness searches exactly as the SQL does', () => {

@@ -5,6 +5,7 @@ import { parseSearchParams } from '@/lib/catalogue/search-params';
 import { searchCurves } from '@/lib/catalogue/search';
 import { opticChoices } from '@/lib/catalogue/optic-choices';
 import { errorMessage } from '@/lib/catalogue/errors';
+import { queryOf, queryString } from '@/lib/catalogue/query-string';
 import { CatalogueSearch } from '@/components/catalogue/catalogue-search';
 
 export const metadata: Metadata = { title: 'Catalogue' };
@@ -13,18 +14,13 @@ type Props = { searchParams: Promise<Record<string, string | string[] | undefine
 
 // The first page is answered on the server, so a shared link shows its results at once; SWR takes over from there.
 export default async function CurvesPage({ searchParams }: Props) {
-  const raw = await searchParams;
-  const flat: Record<string, string> = {};
-  for (const [k, v] of Object.entries(raw)) {
-    const one = Array.isArray(v) ? v[v.length - 1] : v;
-    if (typeof one === 'string' && one !== '') flat[k] = one;
-  }
-  const key = new URLSearchParams(Object.entries(flat).sort(([a], [b]) => a.localeCompare(b))).toString();
+  const query = queryOf(await searchParams);
+  const key = queryString(query);
   const actor = await currentActor().catch(() => null);
   let initial = null;
   let initialError: string | null = null;
   try {
-    initial = await searchCurves(actor, parseSearchParams(flat));
+    initial = await searchCurves(actor, parseSearchParams(new URLSearchParams(key)));
   } catch (err) {
     initialError = errorMessage(err);
   }
