@@ -280,3 +280,63 @@ describe('saving optics', () => {
     await context.close();
   });
 });
+
+describe('the f-number caption describes the plotted line', () => {
+  it('names every stretch above 80 % of a pre-shifted curve, as the downloaded series shows it, also at 390 px', async () => {
+    // a narrow Hα filter pre-shifted to suit f/2.4: too far red when the beam is slow, centred near f/2.4
+    const candidates = await query<{ id: number }>(
+      `SELECT id FROM curves WHERE status = 'verified' AND 'Ha' = ANY(lines) AND set_key IS NULL AND aoi_deg = 0 AND fwhm_nm < 4 ORDER BY fwhm_nm LIMIT 5`,
+    );
+    let picked: { id: number; shift: number } | null = null;
+    for (const c of candidates) {
+      const best = await cone({ curveId: c.id, optic: { fNumber: 2.4, obstruction: 0 }, nEff: 2, lines: ['Ha'] });
+      if (!best.bestPreShift) continue;
+      const shift = Math.round(best.bestPreShift.nm * 100) / 100;
+      const slow = await cone({ curveId: c.id, optic: { fNumber: 10, obstruction: 0 }, nEff: 2, lines: ['Ha'], preShiftNm: shift });
+      const mid = await cone({ curveId: c.id, optic: { fNumber: 2.4, obstruction: 0 }, nEff: 2, lines: ['Ha'], preShiftNm: shift });
+      if (slow.lines[0].throughput < 0.8 && mid.lines[0].throughput >= 0.8) {
+        picked = { id: c.id, shift };
+        break;
+      }
+    }
+    // the demo world holds such a filter (its narrowest Hα units are 2.5–3.5 nm wide)
+    expect(picked).not.toBeNull();
+
+    for (const width of [1440, 390]) {
+      const context = await browser.newContext({ viewport: { width, height: 1000 }, acceptDownloads: true });
+      const page = await context.newPage();
+      await page.goto(`${BASE}/study?curve=${picked!.id}&f=2.4&obs=0&n=2&shift=${picked!.shift}`);
+      await settledVerdict(page);
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(width);
+      const caption = (await page.getByTestId('f-number-caption').first().textContent())!;
+
+      // the plotted series, as the page's own table download carries it
+      const [csvDownload] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download all tables (CSV)' }).click()]);
+      const csv = await readFile((await csvDownload.path())!, 'utf8');
+      const block = csv.split('\r\n\r\n').find((b) => b.includes('# line throughput against f-number'))!;
+      const rows = block.split('\r\n').slice(2).filter(Boolean).map((l) => l.split(',').map(Number));
+      const xs = rows.map((r) => r[0]);
+      const ys = rows.map((r) => r[1]);
+      expect(xs[0]).toBe(1);
+      expect(xs[xs.length - 1]).toBe(10);
+
+      // the wrong old words, and the truth: above 80 % somewhere, below at f/10
+      expect(caption).not.toMatch(/stays below/);
+      expect(ys[ys.length - 1]).toBeLessThan(0.8);
+      // the stretches it names come before "and less elsewhere", which names the plotted range
+      const named = caption.split(', and less elsewhere')[0];
+      const stated = [...named.matchAll(/from f\/(\d+\.\d) to f\/(\d+\.\d)/g)].map((m) => [Number(m[1]), Number(m[2])] as const);
+      expect(stated.length).toBeGreaterThan(0);
+      // every plotted sample inside a stated stretch (half a rounding step in) is at 80 % or more,
+      // every sample outside all of them (half a step out) is below
+      for (let i = 0; i < xs.length; i++) {
+        const inside = stated.some(([a, b]) => xs[i] >= a + 0.05 && xs[i] <= b - 0.05);
+        const outside = stated.every(([a, b]) => xs[i] < a - 0.05 || xs[i] > b + 0.05);
+        if (inside) expect(ys[i], `f/${xs[i]}`).toBeGreaterThanOrEqual(0.8);
+        if (outside) expect(ys[i], `f/${xs[i]}`).toBeLessThan(0.8);
+      }
+      await screenshot(page, `study-caption-${width}`);
+      await context.close();
+    }
+  });
+});
