@@ -3,7 +3,7 @@
 import { useCallback, useMemo, useState } from 'react';
 import { usePathname, useRouter, useSearchParams } from 'next/navigation';
 import useSWR from 'swr';
-import { formatFNumber, formatRatio, formatDeg } from '@/components/charts/format';
+import { formatFNumber, formatRatio } from '@/components/charts/format';
 import { DEFAULT_DIR, SORTS, type Sort } from '@/lib/catalogue/search-params';
 import { FilterPanel } from './filter-panel';
 import { ResultsTable } from './results-table';
@@ -12,6 +12,7 @@ import { CompareTray } from './compare-tray';
 import { SolarCaution, ModelCaution } from './solar-caution';
 import { SORT_NAMES, SKY_NAMES, lineName, INSTRUMENT_NAMES } from './labels';
 import type { OpticChoice, Query, SearchResponse } from './types';
+import { fieldPointWords, headlineFieldAngle } from '@/lib/optics/headline-field';
 
 type Patch = Record<string, string | undefined>;
 
@@ -159,7 +160,7 @@ export function CatalogueSearch(props: {
                   className="rounded-full border border-accent/60 bg-accent/10 px-2 py-0.5"
                 >
                   optic {formatFNumber(Number(query.fNumber))}, obstruction {formatRatio(Number(query.obstruction ?? 0))}
-                  {query.fieldAngleDeg ? `, ${formatDeg(Number(query.fieldAngleDeg))} field` : ''}
+                  , <span data-testid="headline-field">{fieldPointWords(headlineFieldAngle(Number(query.fieldAngleDeg ?? 0)))}</span>
                   {query.nEff ? `, n_eff ${query.nEff}` : ''} <span aria-hidden="true">×</span>
                 </button>
               </li>

@@ -1,12 +1,15 @@
 'use client';
 
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { SpectrumChart, type SpectrumSeries, type SpectrumLine } from '@/components/charts/spectrum-chart';
 import { formatFNumber, formatNm, formatRatio, formatTransmission } from '@/components/charts/format';
 import { LINES } from '@/lib/engine/lines';
+import { fieldEdgeWords, fieldPointWords, headlineOptic } from '@/lib/optics/headline-field';
 import type { OpticChoice } from './types';
 
 interface ConeAnswer {
+  /** The same model at the optic's field edge, when it has one (the second number). */
+  edge?: { fieldAngleDeg: number; lines: ConeAnswer['lines'] } | null;
   lines: { id: string; wavelengthNm: number; collimated: number; throughput: number; speedEquivalentFNumber: number | null }[];
   bestPreShift: { nm: number; throughput: number } | null;
   coneCurve?: { wavelengthNm: number[]; transmission: number[] };
@@ -36,39 +39,48 @@ export function CurveChart(props: {
   const optic = props.optics.find((o) => String(o.id) === opticId);
   const key = `${opticId}|${nEff}`;
 
-  const run = async (want: boolean) => {
-    setOverlay(want);
+  // The headline and the overlay are on axis (headline-field.ts); the optic's field edge is a second number.
+  const load = async () => {
+    if (!optic) return;
     setError(null);
-    if (!want || !optic || answer?.key === key) return;
     const n = Number(nEff);
     if (!(n >= 1 && n <= 4)) {
       setError('The effective index must be between 1.0 and 4.0.');
-      setOverlay(false);
       return;
     }
     setBusy(true);
-    try {
+    const model = async (fieldAngleDeg: number, includeCurve: boolean) => {
       const res = await fetch('/api/model/cone', {
         method: 'POST',
         headers: { 'content-type': 'application/json' },
         body: JSON.stringify({
           curveId: props.curveId,
-          optic: { fNumber: optic.fNumber, obstruction: optic.obstruction, fieldAngleDeg: optic.fieldAngleDeg },
+          optic: { fNumber: optic.fNumber, obstruction: optic.obstruction, fieldAngleDeg },
           nEff: n,
           lines: props.lineIds.length ? props.lineIds : undefined,
-          includeCurve: true,
+          includeCurve,
         }),
       });
       const body = await res.json();
       if (!res.ok) throw new Error(body?.error ?? `The cone model failed (${res.status}).`);
-      setAnswer({ key, data: body as ConeAnswer });
+      return body as ConeAnswer;
+    };
+    try {
+      const head = await model(headlineOptic(optic).fieldAngleDeg, true);
+      const edge = optic.fieldAngleDeg > 0 ? { fieldAngleDeg: optic.fieldAngleDeg, lines: (await model(optic.fieldAngleDeg, false)).lines } : null;
+      setAnswer({ key, data: { ...head, edge } });
     } catch (e) {
       setError(e instanceof Error ? e.message : 'The cone model failed.');
-      setOverlay(false);
     } finally {
       setBusy(false);
     }
   };
+
+  // Ticked stays ticked: another optic or index recomputes the overlay instead of removing it.
+  useEffect(() => {
+    if (overlay && answer?.key !== key) void load();
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [overlay, key]);
 
   const lines: SpectrumLine[] = useMemo(() => {
     const lo = props.points.wavelengthNm[0];
@@ -80,7 +92,7 @@ export function CurveChart(props: {
   const series: SpectrumSeries[] = useMemo(() => {
     const s: SpectrumSeries[] = [{ name: 'Measured', wavelengthNm: props.points.wavelengthNm, transmission: props.points.transmission, kind: 'measured' }];
     if (overlay && current?.coneCurve && optic) {
-      s.push({ name: `Cone-averaged, ${optic.name}`, wavelengthNm: current.coneCurve.wavelengthNm, transmission: current.coneCurve.transmission, kind: 'cone' });
+      s.push({ name: `Cone-averaged, ${optic.name}, ${fieldPointWords(0)}`, wavelengthNm: current.coneCurve.wavelengthNm, transmission: current.coneCurve.transmission, kind: 'cone' });
     }
     return s;
   }, [props.points, overlay, current, optic]);
@@ -91,17 +103,14 @@ export function CurveChart(props: {
       <div className="rounded-card border border-rule bg-panel px-3 py-3 text-sm" data-testid="cone-overlay">
         <div className="flex flex-wrap items-end gap-3">
           <label className="flex items-center gap-2">
-            <input type="checkbox" checked={overlay} onChange={(e) => run(e.target.checked)} disabled={!optic || busy} className="h-4 w-4 accent-[rgb(var(--c-accent))]" data-testid="overlay-toggle" />
+            <input type="checkbox" checked={overlay} onChange={(e) => setOverlay(e.target.checked)} disabled={!optic || busy} className="h-4 w-4 accent-[rgb(var(--c-accent))]" data-testid="overlay-toggle" />
             <span>Overlay the cone-averaged curve for</span>
           </label>
           <label className="min-w-0">
             <span className="sr-only">Optic</span>
             <select
               value={opticId}
-              onChange={(e) => {
-                setOpticId(e.target.value);
-                setOverlay(false);
-              }}
+              onChange={(e) => setOpticId(e.target.value)}
               className="max-w-[18rem] rounded-card border border-rule bg-paper px-2 py-1"
             >
               {props.optics.map((o) => (
@@ -113,10 +122,7 @@ export function CurveChart(props: {
             <span className="text-muted">n_eff</span>
             <input
               value={nEff}
-              onChange={(e) => {
-                setNEff(e.target.value);
-                setOverlay(false);
-              }}
+              onChange={(e) => setNEff(e.target.value)}
               inputMode="decimal"
               className="figures w-16 rounded-card border border-rule bg-paper px-2 py-1 text-right"
               aria-label="Effective index"
@@ -129,13 +135,13 @@ export function CurveChart(props: {
         {overlay && current && optic ? (
           <div className="mt-2 space-y-1" data-testid="cone-result">
             <p>
-              On {optic.name} ({formatFNumber(optic.fNumber)}, obstruction {formatRatio(optic.obstruction)}
-              {optic.fieldAngleDeg ? `, ${optic.fieldAngleDeg}° field` : ''}):{' '}
+              On {optic.name} ({formatFNumber(optic.fNumber)}, obstruction {formatRatio(optic.obstruction)}),{' '}
+              <span data-testid="headline-field">{fieldPointWords(0)}</span>:{' '}
               {current.lines.map((l, i) => (
                 <span key={l.id}>
                   {i ? '; ' : ''}
-                  {LINES.find((x) => x.id === l.id)?.name ?? l.id} keeps {formatTransmission(l.throughput)} (collimated {formatTransmission(l.collimated)}), like{' '}
-                  {l.speedEquivalentFNumber === null ? 'no signal' : formatFNumber(l.speedEquivalentFNumber)}
+                  {LINES.find((x) => x.id === l.id)?.name ?? l.id} keeps <span data-testid="headline-throughput" data-raw={l.throughput}>{formatTransmission(l.throughput)}</span> (collimated{' '}
+                  {formatTransmission(l.collimated)}), like {l.speedEquivalentFNumber === null ? 'no signal' : formatFNumber(l.speedEquivalentFNumber)}
                 </span>
               ))}
               {current.bestPreShift ? (
@@ -145,6 +151,15 @@ export function CurveChart(props: {
               ) : null}
               .
             </p>
+            {current.edge ? (
+              <p data-testid="edge-result">
+                And {fieldEdgeWords(current.edge.fieldAngleDeg)}:{' '}
+                {current.edge.lines
+                  .map((l) => `${LINES.find((x) => x.id === l.id)?.name ?? l.id} keeps ${formatTransmission(l.throughput)}`)
+                  .join('; ')}
+                .
+              </p>
+            ) : null}
             {current.warnings.length ? <p className="text-xs text-muted">{current.warnings.join(' ')}</p> : null}
           </div>
         ) : null}
