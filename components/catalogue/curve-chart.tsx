@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useMemo, useState } from 'react';
+import { useMemo, useRef, useState } from 'react';
 import { SpectrumChart, type SpectrumSeries, type SpectrumLine } from '@/components/charts/spectrum-chart';
 import { formatFNumber, formatNm, formatRatio, formatTransmission } from '@/components/charts/format';
 import { LINES } from '@/lib/engine/lines';
@@ -38,12 +38,18 @@ export function CurveChart(props: {
   const [error, setError] = useState<string | null>(null);
   const optic = props.optics.find((o) => String(o.id) === opticId);
   const key = `${opticId}|${nEff}`;
+  // the last overlay asked for: an older answer arriving late is dropped
+  const wanted = useRef('');
 
   // The headline and the overlay are on axis (headline-field.ts); the optic's field edge is a second number.
-  const load = async () => {
-    if (!optic) return;
+  // Ticked stays ticked: another optic or index recomputes the overlay instead of removing it.
+  const load = async (forOptic: string, forNEff: string) => {
+    const optic = props.optics.find((o) => String(o.id) === forOptic);
+    const key = `${forOptic}|${forNEff}`;
+    wanted.current = key;
+    if (!optic || answer?.key === key) return;
     setError(null);
-    const n = Number(nEff);
+    const n = Number(forNEff);
     if (!(n >= 1 && n <= 4)) {
       setError('The effective index must be between 1.0 and 4.0.');
       return;
@@ -68,19 +74,13 @@ export function CurveChart(props: {
     try {
       const head = await model(headlineOptic(optic).fieldAngleDeg, true);
       const edge = optic.fieldAngleDeg > 0 ? { fieldAngleDeg: optic.fieldAngleDeg, lines: (await model(optic.fieldAngleDeg, false)).lines } : null;
-      setAnswer({ key, data: { ...head, edge } });
+      if (wanted.current === key) setAnswer({ key, data: { ...head, edge } });
     } catch (e) {
-      setError(e instanceof Error ? e.message : 'The cone model failed.');
+      if (wanted.current === key) setError(e instanceof Error ? e.message : 'The cone model failed.');
     } finally {
-      setBusy(false);
+      if (wanted.current === key) setBusy(false);
     }
   };
-
-  // Ticked stays ticked: another optic or index recomputes the overlay instead of removing it.
-  useEffect(() => {
-    if (overlay && answer?.key !== key) void load();
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [overlay, key]);
 
   const lines: SpectrumLine[] = useMemo(() => {
     const lo = props.points.wavelengthNm[0];
@@ -103,14 +103,20 @@ export function CurveChart(props: {
       <div className="rounded-card border border-rule bg-panel px-3 py-3 text-sm" data-testid="cone-overlay">
         <div className="flex flex-wrap items-end gap-3">
           <label className="flex items-center gap-2">
-            <input type="checkbox" checked={overlay} onChange={(e) => setOverlay(e.target.checked)} disabled={!optic || busy} className="h-4 w-4 accent-[rgb(var(--c-accent))]" data-testid="overlay-toggle" />
+            <input type="checkbox" checked={overlay} onChange={(e) => {
+                setOverlay(e.target.checked);
+                if (e.target.checked) void load(opticId, nEff);
+              }} disabled={!optic || busy} className="h-4 w-4 accent-[rgb(var(--c-accent))]" data-testid="overlay-toggle" />
             <span>Overlay the cone-averaged curve for</span>
           </label>
           <label className="min-w-0">
             <span className="sr-only">Optic</span>
             <select
               value={opticId}
-              onChange={(e) => setOpticId(e.target.value)}
+              onChange={(e) => {
+                setOpticId(e.target.value);
+                if (overlay) void load(e.target.value, nEff);
+              }}
               className="max-w-[18rem] rounded-card border border-rule bg-paper px-2 py-1"
             >
               {props.optics.map((o) => (
@@ -122,7 +128,10 @@ export function CurveChart(props: {
             <span className="text-muted">n_eff</span>
             <input
               value={nEff}
-              onChange={(e) => setNEff(e.target.value)}
+              onChange={(e) => {
+                setNEff(e.target.value);
+                if (overlay) void load(opticId, e.target.value);
+              }}
               inputMode="decimal"
               className="figures w-16 rounded-card border border-rule bg-paper px-2 py-1 text-right"
               aria-label="Effective index"
