@@ -194,7 +194,7 @@ export function CatalogueSearch(props: {
         <section aria-label="Results" className="min-w-0 space-y-3">
           <div className="flex flex-wrap items-center gap-x-4 gap-y-2 text-sm">
             <p aria-live="polite" data-testid="result-count">
-              {isLoading && !data ? 'Searching…' : <><strong className="figures">{total.toLocaleString('en-US')}</strong> curve{total === 1 ? '' : 's'}</>}
+              {isLoading && !data ? 'Searching…' : <><strong className="figures">{total.toLocaleString('en-US')}</strong> <span title="One row per physical unit: a unit measured at several angles is one row">unit{total === 1 ? '' : 's'}</span></>}
               {isValidating && data ? <span className="ml-2 text-muted">updating…</span> : null}
             </p>
             <label className="flex items-center gap-2">

@@ -15,7 +15,7 @@ import type { Pupil } from '@/lib/engine/pupil';
 import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
 import { FINE_INTERVALS, LEVEL_LENGTH, SCALE, applyOffNormal, offNormalCoefficients, offNormalThroughput, type OffNormalCoefficients, type Weights } from './fitness-grid';
 import { curvePointsByIds } from './points';
-import { catalogueCopy, dropCatalogueCopy, fineBlock, gridBlock, StaleCopy, type FineBlock, type GridBlock, type Snapshot } from './memory-index';
+import { catalogueCopy, dropCatalogueCopy, fineBlock, gridBlock, StaleCopy, unitLeadsOf, type FineBlock, type GridBlock, type Snapshot } from './memory-index';
 import { hasFitness, type SearchParams, type Sort } from './search-params';
 
 export type CountGroup = { instrument: string; bucket: number | null; lines: string[]; pf: boolean; n: string };
@@ -72,11 +72,15 @@ async function run(s: Snapshot, p: SearchParams & { fNumber: number }, w: Weight
 
   // The filters every facet keeps, once per curve. Written out flat over local typed arrays:
   // this loop and the two below run over 100 000 curves per search.
-  const { cwl, fwhm, peak, aoi, contributor, firstLine, lineMask, instrument, fwhmBucket } = s;
+  const { fwhm, peak, aoi, contributor, firstLine, lineMask, instrument, fwhmBucket } = s;
+  // the CWL of the filter is at normal incidence, and a set's other curves give way to its lead (units.ts)
+  const cwl = s.normalCwl;
+  const lead = unitLeadsOf(s);
   const who = p.contributor ? s.contributors.indexOf(p.contributor) : -2;
   const [cwlLo, cwlHi, peakLo, aoiLo, aoiHi] = [p.cwlMin, p.cwlMax, p.peakMin, p.aoiMin, p.aoiMax];
   const mask = new Uint8Array(n);
   for (let i = 0; i < n; i++) {
+    if (!lead[i]) continue;
     if (cwlLo !== undefined && !(cwl[i] >= cwlLo)) continue;
     if (cwlHi !== undefined && !(cwl[i] <= cwlHi)) continue;
     if (peakLo !== undefined && !(peak[i] >= peakLo)) continue;
@@ -201,7 +205,7 @@ function comparator(s: Snapshot, sort: Sort, dir: 'asc' | 'desc', tau: Float64Ar
   let nullsFirst = false;
   switch (sort) {
     case 'cwl':
-      vals = s.cwl;
+      vals = s.normalCwl;
       break;
     case 'fwhm':
       vals = s.fwhm;

@@ -21,6 +21,7 @@ import { cachedCounts } from './count-cache';
 import { binaryArraySql, readFloat8Array } from './binary-array';
 import { curvePointsByIds } from './points';
 import { answeredInMemory, searchInMemory, type CountGroup } from './memory-search';
+import { normalCwlNm, normalCwlSql, unitLeadSql, unitSetsOf, type UnitSet } from './units';
 import { byContrast, contrastOf, CONTRAST_CANDIDATES, CONTRAST_REFERENCE_BOX_NM, DEFAULT_CONTRAST_SKY } from './contrast';
 
 export interface SearchItem {
@@ -29,12 +30,17 @@ export interface SearchItem {
   label: string;
   maker: string | null;
   lines: string[];
+  /** CWL at normal incidence (units.ts), what the CWL filter and order use. */
   cwlNm: number | null;
+  /** CWL as measured, at `aoiDeg`. */
+  measuredCwlNm: number | null;
   fwhmNm: number | null;
   peakT: number;
   status: string;
   instrument: string;
   aoiDeg: number;
+  /** The unit's curve set: every angle it was measured at and the curve of each (one row stands for the unit). */
+  set: UnitSet;
   verifiedAt: string | null;
   throughput?: number;
   /** Throughput at ∓ the curve's wavelength-scale uncertainty (declared, else its instrument's default). */
@@ -120,7 +126,8 @@ export interface Plan {
  */
 function clauses(plan: Plan, s: SqlParts, withFitness = true, omit: ('line' | 'method' | 'fwhm')[] = []): Built {
   const { p, actor } = plan;
-  const common: string[] = [visibility(actor, p, s)];
+  // one row per unit: a set's other curves are left out of the rows, the counts and the facets (units.ts)
+  const common: string[] = [visibility(actor, p, s), unitLeadSql('c')];
   let query: string | null = null;
   let rank: string | null = null;
   if (p.q) {
@@ -128,8 +135,8 @@ function clauses(plan: Plan, s: SqlParts, withFitness = true, omit: ('line' | 'm
     common.push(`c.search @@ ${query}`);
     rank = `ts_rank_cd(c.search, ${query})`;
   }
-  if (p.cwlMin !== undefined) common.push(`c.cwl_nm >= ${s.param(p.cwlMin)}`);
-  if (p.cwlMax !== undefined) common.push(`c.cwl_nm <= ${s.param(p.cwlMax)}`);
+  if (p.cwlMin !== undefined) common.push(`${normalCwlSql('c')} >= ${s.param(p.cwlMin)}`);
+  if (p.cwlMax !== undefined) common.push(`${normalCwlSql('c')} <= ${s.param(p.cwlMax)}`);
   if (p.peakMin !== undefined) common.push(`c.peak_t >= ${s.param(p.peakMin)}`);
   if (p.aoiMin !== undefined) common.push(`c.aoi_deg >= ${s.param(p.aoiMin)}`);
   if (p.aoiMax !== undefined) common.push(`c.aoi_deg <= ${s.param(p.aoiMax)}`);
@@ -239,7 +246,7 @@ function orderBy(sort: Sort, dir: 'asc' | 'desc', b: Built): string {
     case 'relevance':
       return b.rank ? `${b.rank} ${d}, c.verified_at DESC NULLS LAST, c.id DESC` : newest;
     case 'cwl':
-      return `c.cwl_nm ${d} NULLS LAST, ${tie}`;
+      return `${normalCwlSql('c')} ${d} NULLS LAST, ${tie}`;
     case 'fwhm':
       return `c.fwhm_nm ${d} NULLS LAST, ${tie}`;
     case 'peak':
@@ -441,18 +448,21 @@ async function assemble(p: SearchParams, pl: Plan, o: { sort: Sort; dir: 'asc' |
   facets.method.sort((a, z) => z.count - a.count || a.key.localeCompare(z.key));
   facets.fwhm.sort((a, z) => parseFloat(a.key) - parseFloat(z.key));
 
+  const sets = await unitSetsOf(rows.map((r) => ({ id: r.id, aoiDeg: r.aoi_deg })));
   const items: SearchItem[] = rows.map((r) => ({
     id: r.id,
     title: titleOf(r),
     label: r.label,
     maker: r.maker,
     lines: r.lines,
-    cwlNm: r.cwl_nm,
+    cwlNm: normalCwlNm(r.cwl_nm, r.aoi_deg, r.n_eff),
+    measuredCwlNm: r.cwl_nm,
     fwhmNm: r.fwhm_nm,
     peakT: r.peak_t,
     status: r.status,
     instrument: r.instrument,
     aoiDeg: r.aoi_deg,
+    set: sets.get(r.id) ?? { aoiDeg: [r.aoi_deg], curveIds: [r.id] },
     verifiedAt: r.verified_at ? new Date(r.verified_at).toISOString() : null,
     ...(r.snippet && r.snippet.includes(MARK_START) ? { snippet: snippetHtml(r.snippet) } : {}),
     sparkline: { wavelengthNm: r.spark_w ?? [], transmission: r.spark_t ?? [] },

@@ -75,9 +75,9 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
   {
     method: 'get', path: '/api/curves', tag: 'Curves', access: 'public',
     summary: 'Search curves by words, numbers and fitness for an optic',
-    description: 'A visitor sees verified curves; a contributor also their own; a moderator all. With `fNumber` (+ `obstruction`, `nEff`, `fieldAngleDeg`) each result carries its line throughput on that optic, and `minThroughput` keeps those that reach it.',
+    description: 'A visitor sees verified curves; a contributor also their own; a moderator all. With `fNumber` (+ `obstruction`, `nEff`, `fieldAngleDeg`) each result carries its line throughput on that optic (on axis unless `fieldAngleDeg` is given), and `minThroughput` keeps those that reach it. One item per physical unit: a curve set measured at several angles is one item, its lead curve (lowest AOI), with `set: { aoiDeg, curveIds }`; `total` and the facets count units. `cwlNm` (and `cwlMin`, `cwlMax`, `sort=cwl`) is at normal incidence, `measuredCwlNm` as measured.',
     query: search,
-    responses: { 200: { description: 'One page of results, the total and facet counts.', schema: r.searchResult }, ...invalid },
+    responses: { 200: { description: 'One page of units, the total and facet counts.', schema: r.searchResult }, ...invalid },
     example: { query: { line: 'Ha', fwhmMax: '5', fNumber: '2.5', obstruction: '0.36', minThroughput: '0.5', sort: 'throughput', pageSize: '5' } },
   },
   {
