@@ -503,7 +503,7 @@ async function finishPage(p: SearchParams, pupil: Pupil | undefined, items: Sear
   }
 }
 
-/** Ids of every verified curve a search matches, in its order (for exports; no paging). */
+/** Ids of every verified curve a search matches, unit by unit in its order (for exports; no paging). */
 export async function matchingVerifiedIds(p: SearchParams, limit: number): Promise<{ ids: number[]; total: number }> {
   const pl = await plan(null, { ...p, status: undefined });
   const b = clauses(pl, new SqlParts());
@@ -513,5 +513,10 @@ export async function matchingVerifiedIds(p: SearchParams, limit: number): Promi
      ORDER BY ${orderBy(sort, dir, b)} LIMIT ${b.s.param(limit + 1)}`,
     { bind: b.s.bind, type: QueryTypes.SELECT },
   );
-  return { ids: rows.slice(0, limit).map((r) => r.id), total: rows.length ? Number(rows[0].total) : 0 };
+  // the search lists units; an export holds every curve of each, the lead first, then by angle
+  const leads = rows.slice(0, limit).map((r) => r.id);
+  const sets = await unitSetsOf(leads.map((id) => ({ id, aoiDeg: 0 })));
+  const ids = leads.flatMap((id) => sets.get(id)!.curveIds);
+  const units = rows.length ? Number(rows[0].total) : 0;
+  return { ids: ids.slice(0, limit), total: units + ids.length - leads.length };
 }

@@ -324,6 +324,16 @@ describe('one row per unit, its CWL at normal incidence', () => {
         expect(r.facets.method.reduce((t, f) => t + f.count, 0)).toBe(Number(units));
       }
     }
+    // an export of the same search still holds every curve of every unit, each set lead first
+    const { matchingVerifiedIds } = await import('@/lib/catalogue/search');
+    const exported = await matchingVerifiedIds(parseSearchParams(new URLSearchParams('')), 10_000);
+    const [{ curves }] = await sequelize.query<{ curves: string }>(`SELECT count(*) AS curves FROM curves WHERE status = 'verified'`, { type: QueryTypes.SELECT });
+    expect(exported.total).toBe(Number(curves));
+    expect(new Set(exported.ids).size).toBe(Number(curves));
+    for (const set of sets) {
+      const at = exported.ids.indexOf(set.ids[0]);
+      expect(exported.ids.slice(at, at + set.ids.length)).toEqual(set.ids);
+    }
   });
 
   it('gives the CWL at normal incidence by the engine\'s rule, the SQL filter and order agreeing with it, and keeps the measured one', async () => {
