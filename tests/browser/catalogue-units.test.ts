@@ -1,19 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { launch, screenshot } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import { browserForFile, screenshot } from '../support/browser';
 import { BASE } from '../support/http';
 import { query } from '../support/db';
-import { closeSequelize } from '@/db/connection';
 import { normalCwlNm } from '@/lib/catalogue/units';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-  await closeSequelize();
-});
+const browser = browserForFile();
 
 describe('the catalogue lists units, not their angles', () => {
   it('shows a multi-angle set as one row with its angles, opening to each curve; the CWL column at normal incidence; the curve page as measured', async () => {
@@ -28,7 +19,7 @@ describe('the catalogue lists units, not their angles', () => {
     expect(alone).toBeDefined();
 
     for (const width of [1440, 390]) {
-      const context = await browser.newContext({ viewport: { width, height: 1000 } });
+      const context = await browser().newContext({ viewport: { width, height: 1000 } });
       const page = await context.newPage();
       await page.goto(`${BASE}/curves?q=${encodeURIComponent(`"${set.label}"`)}&pageSize=100`);
       await page.waitForSelector('[data-testid="results"] tbody tr');
@@ -49,7 +40,7 @@ describe('the catalogue lists units, not their angles', () => {
     }
 
     // an off-normal curve: its CWL column is at normal incidence (the engine's rule), its page as measured
-    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+    const context = await browser().newContext({ viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
     const normal = normalCwlNm(alone.cwl_nm, alone.aoi_deg, alone.n_eff)!;
     await page.goto(`${BASE}/curves?cwlMin=${(normal - 0.01).toFixed(3)}&cwlMax=${(normal + 0.01).toFixed(3)}&pageSize=100`);

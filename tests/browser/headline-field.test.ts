@@ -1,18 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launch, screenshot } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserForFile, screenshot } from '../support/browser';
 import { BASE } from '../support/http';
 import { query } from '../support/db';
-import { closeSequelize } from '@/db/connection';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-  await closeSequelize();
-});
+const browser = browserForFile();
 
 type Cone = { lines: { id: string; throughput: number }[] };
 
@@ -46,7 +38,7 @@ describe('one field point for every headline throughput', () => {
     // the case that matters: the edge is a different number from the centre
     expect(Math.abs(fastAxis - fastEdge)).toBeGreaterThan(0.001);
 
-    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+    const context = await browser().newContext({ viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
     await page.goto(`${BASE}/curves/${curve.id}`);
     const overlay = page.getByTestId('cone-overlay');
@@ -80,7 +72,7 @@ describe('one field point for every headline throughput', () => {
     await context.close();
 
     // on a phone: the same words, nothing wider than the screen
-    const phone = await browser.newContext({ viewport: { width: 390, height: 844 }, deviceScaleFactor: 2 });
+    const phone = await browser().newContext({ viewport: { width: 390, height: 844 }, deviceScaleFactor: 2 });
     const small = await phone.newPage();
     await small.goto(`${BASE}/curves/${curve.id}`);
     await small.getByTestId('cone-overlay').locator('select').selectOption(String(fast.id));
