@@ -8,6 +8,7 @@ import coating from './0006_coating';
 import rateLimits from './0007_rate_limits';
 import catalogueChanges from './0009_catalogue_changes';
 import curvePageReads from './0010_curve_page_reads';
+import catalogueUnits from './0011_catalogue_units';
 
 export type Migration = {
   name: string;
@@ -16,4 +17,4 @@ export type Migration = {
 };
 
 // Append new migrations here, in order; never edit one that has shipped.
-export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, coating, rateLimits, catalogueChanges, curvePageReads];
+export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, coating, rateLimits, catalogueChanges, curvePageReads, catalogueUnits];

@@ -54,6 +54,12 @@ describe('searches use their indexes', () => {
     }
   });
 
+  it('one row per unit: a set member gives way to its lead through the unit index, not by reading the curves', async () => {
+    const p = await plan('line=Ha&sort=newest', 'page', 'visitor', { bitmaps: false });
+    expect(p).toMatch(/curves_unit_set_idx/);
+    expect(p).not.toMatch(/Seq Scan on curves/);
+  });
+
   it('the fitness filter reads the fitness grid through its key', async () => {
     const p = await plan('line=Ha&fNumber=2.5&obstruction=0.36&minThroughput=0.8&sort=throughput', 'page');
     expect(p).toMatch(/Index Scan using curve_fitness_pkey on curve_fitness|Bitmap Index Scan on curve_fitness_pkey/);
