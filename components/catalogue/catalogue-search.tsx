@@ -15,6 +15,7 @@ import { SORT_NAMES, SKY_NAMES, lineName, INSTRUMENT_NAMES, bucketLabel } from '
 import { queryOf, queryString } from '@/lib/catalogue/query-string';
 import { understoodLabel } from './labels';
 import type { OpticChoice, Query, SearchResponse } from './types';
+import { fieldPointWords, headlineFieldAngle } from '@/lib/optics/headline-field';
 
 type Patch = Record<string, string | undefined>;
 
@@ -185,7 +186,7 @@ export function CatalogueSearch(props: {
                   className="rounded-full border border-accent/60 bg-accent/10 px-2 py-0.5"
                 >
                   optic {formatFNumber(Number(query.fNumber))}, obstruction {formatRatio(Number(query.obstruction ?? 0))}
-                  {query.fieldAngleDeg ? `, ${formatDeg(Number(query.fieldAngleDeg))} field` : ''}
+                  , <span data-testid="headline-field">{fieldPointWords(headlineFieldAngle(Number(query.fieldAngleDeg ?? 0)))}</span>
                   {query.nEff ? `, n_eff ${query.nEff}` : ''} <span aria-hidden="true">×</span>
                 </button>
               </li>
@@ -219,7 +220,7 @@ export function CatalogueSearch(props: {
         <section aria-label="Results" className="min-w-0 space-y-3">
           <div className="flex flex-wrap items-center gap-x-4 gap-y-2 text-sm">
             <p aria-live="polite" data-testid="result-count">
-              {isLoading && !data ? 'Searching…' : shownError ? 'No answer' : <><strong className="figures">{total.toLocaleString('en-US')}</strong> curve{total === 1 ? '' : 's'}</>}
+              {isLoading && !data ? 'Searching…' : shownError ? 'No answer' : <><strong className="figures">{total.toLocaleString('en-US')}</strong> <span title="One row per physical unit: a unit measured at several angles is one row">unit{total === 1 ? '' : 's'}</span></>}
               {isValidating && data ? <span className="ml-2 text-muted">updating…</span> : null}
             </p>
             <label className="flex items-center gap-2">

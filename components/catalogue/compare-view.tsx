@@ -17,12 +17,12 @@ import { INSTRUMENT_NAMES, lineName } from './labels';
 import { SolarCaution, ModelCaution } from './solar-caution';
 import type { OpticChoice } from './types';
 import { formatCurveId } from '@/lib/labels';
+import { fieldPointWords, headlineFieldAngle, headlineOptic } from '@/lib/optics/headline-field';
 
 type Throughput = { id: string; throughput: number; speedEquivalentFNumber: number | null };
 
 function describeOptic(o: CompareOptic): string {
-  const parts = [`f/${o.fNumber.toFixed(1)}`, o.obstruction.toFixed(2)];
-  if (o.fieldAngleDeg) parts.push(`${o.fieldAngleDeg}° off axis`);
+  const parts = [`f/${o.fNumber.toFixed(1)}`, o.obstruction.toFixed(2), fieldPointWords(headlineFieldAngle(o.fieldAngleDeg))];
   if (o.nEff !== undefined) parts.push(`n_eff ${o.nEff}`);
   return parts.join(', ');
 }
@@ -39,8 +39,12 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
   const [results, setResults] = useState<{ key: string; byCurve: Record<number, Throughput[] | string> } | null>(null);
   const optic: (CompareOptic & { fieldAngleDeg: number }) | undefined =
     opticId === FROM_SEARCH && props.searchOptic
-      ? { ...props.searchOptic, fieldAngleDeg: props.searchOptic.fieldAngleDeg ?? 0 }
-      : props.optics.find((o) => String(o.id) === opticId);
+      ? headlineOptic(props.searchOptic, props.searchOptic.fieldAngleDeg)
+      : (() => {
+          // a saved optic's chief-ray angle is its field edge; the headline is on axis (headline-field.ts)
+          const o = props.optics.find((x) => String(x.id) === opticId);
+          return o ? headlineOptic(o) : undefined;
+        })();
   const namedNEff = opticId === FROM_SEARCH ? props.searchOptic?.nEff : undefined;
   const key = `${opticId}|${ids.join(',')}`;
 
@@ -172,7 +176,8 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
               ))}
               <tr className="border-b border-rule/60 bg-accent/5">
                 <th scope="row" className="px-3 py-1.5 text-left font-normal">
-                  Line throughput{optic ? ` at ${formatFNumber(optic.fNumber)}, ${formatRatio(optic.obstruction)}` : ''}
+                  Line throughput{optic ? ` at ${formatFNumber(optic.fNumber)}, ${formatRatio(optic.obstruction)}, ` : ''}
+                  {optic ? <span data-testid="headline-field">{fieldPointWords(optic.fieldAngleDeg)}</span> : null}
                 </th>
                 {props.curves.map((c) => {
                   const r = current?.[c.id];

@@ -123,7 +123,7 @@ export function FilterPanel(props: {
   const set = (k: string) => (v: string | undefined) => onChange({ [k]: v });
   const fitnessOn = !!q.fNumber;
   const activeOptic = props.optics.find(
-    (o) => String(o.fNumber) === q.fNumber && String(o.obstruction) === (q.obstruction ?? '0') && String(o.fieldAngleDeg) === (q.fieldAngleDeg ?? '0'),
+    (o) => String(o.fNumber) === q.fNumber && String(o.obstruction) === (q.obstruction ?? '0') && !Number(q.fieldAngleDeg ?? 0),
   );
   const lineKeys = LINE_IDS.filter((id) => count(facets?.line, id) > 0 || q.line === id);
   const chosen = (q.fwhmBucket ?? '').split(',').filter(Boolean);
@@ -154,7 +154,8 @@ export function FilterPanel(props: {
               onChange={(e) => {
                 const o = props.optics.find((x) => String(x.id) === e.target.value);
                 if (e.target.value === '') onChange({ fNumber: undefined, obstruction: undefined, fieldAngleDeg: undefined, nEff: undefined, minThroughput: undefined, sort: q.sort === 'throughput' ? undefined : q.sort });
-                else if (o) onChange({ fNumber: String(o.fNumber), obstruction: String(o.obstruction), fieldAngleDeg: o.fieldAngleDeg ? String(o.fieldAngleDeg) : undefined });
+                // on axis, as every headline is (headline-field.ts); a field angle is typed below
+                else if (o) onChange({ fNumber: String(o.fNumber), obstruction: String(o.obstruction), fieldAngleDeg: undefined });
               }}
             >
               <option value="">No optic</option>

@@ -11,6 +11,7 @@ import { findLine } from '@/lib/engine/lines';
 import { INSTRUMENT_NAMES, lineName } from './labels';
 import { useCompareBoard, MAX_COMPARE } from './compare-board';
 import type { ResultItem } from './types';
+import { UnitSetAngles } from './unit-set';
 
 type SortKey = 'cwl' | 'fwhm' | 'peak' | 'throughput';
 type Meta = { numeric?: boolean; sort?: SortKey; className?: string };
@@ -89,9 +90,10 @@ export function ResultsTable(props: {
               ) : null}
             </div>
             <p className="figures text-xs text-muted sm:hidden">
-              {formatNm(r.cwlNm)} CWL · {formatNm(r.fwhmNm)} FWHM · peak {formatTransmission(r.peakT)}
+              {formatNm(r.cwlNm)} CWL at 0° · {formatNm(r.fwhmNm)} FWHM · peak {formatTransmission(r.peakT)}
               {r.throughput !== undefined ? ` · keeps ${formatTransmission(r.throughput)}` : ''}
             </p>
+            <UnitSetAngles set={r.set} title={r.title} />
             {r.snippet ? <p className="text-xs leading-snug text-muted [&_mark]:rounded-sm [&_mark]:bg-accent/20 [&_mark]:px-0.5 [&_mark]:text-ink" dangerouslySetInnerHTML={{ __html: r.snippet }} /> : null}
           </div>
         );
@@ -115,7 +117,20 @@ export function ResultsTable(props: {
         );
       },
     },
-    { id: 'cwl', header: header('CWL', 'cwl'), cell: ({ row }) => formatNm(row.original.cwlNm), meta: { numeric: true } satisfies Meta },
+    {
+      id: 'cwl',
+      header: header('CWL at 0°', 'cwl'),
+      cell: ({ row }) => (
+        <span
+          data-testid="cwl"
+          data-raw={row.original.cwlNm ?? ''}
+          title={row.original.aoiDeg > 0 ? `At normal incidence; ${formatNm(row.original.measuredCwlNm)} as measured at ${row.original.aoiDeg}°` : 'At normal incidence, as measured'}
+        >
+          {formatNm(row.original.cwlNm)}
+        </span>
+      ),
+      meta: { numeric: true } satisfies Meta,
+    },
     { id: 'fwhm', header: header('FWHM', 'fwhm'), cell: ({ row }) => <span data-testid="fwhm" data-raw={row.original.fwhmNm ?? ''}>{formatNm(row.original.fwhmNm)}</span>, meta: { numeric: true } satisfies Meta },
     { id: 'peak', header: header('Peak T', 'peak'), cell: ({ row }) => formatTransmission(row.original.peakT), meta: { numeric: true } satisfies Meta },
   ];

@@ -6,6 +6,7 @@ import { ControlledChart } from './controlled-chart';
 import { seriesToCsv } from './csv';
 import { finitePairs } from './downsample';
 import { formatValue, type ValueFormat } from './format';
+import { markerLabelPositions } from './marker-labels';
 import {
   LARGE,
   axisOption,
@@ -201,9 +202,19 @@ export function XYChart({
       return [line, { type: 'scatter', id: `m-${p.key}`, name: p.name, data: marks, symbolSize: 6, ...sym, silent: true, tooltip: { show: false }, z: 5 }];
     });
 
-    const markLineData = markers
-      .filter((m) => Number.isFinite(m.value))
+    const shownMarkers = markers.filter((m) => Number.isFinite(m.value));
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (const v of [...shown.flatMap((p) => p.x), ...shownMarkers.filter((m) => m.axis !== 'y').map((m) => m.value)]) {
+      lo = Math.min(lo, v);
+      hi = Math.max(hi, v);
+    }
+    const xSpan = (xMax ?? hi) - (xMin ?? lo);
+    const vertical = shownMarkers.filter((m) => m.axis !== 'y');
+    const positions = markerLabelPositions(vertical.map((m) => m.value), Number.isFinite(xSpan) ? xSpan : 0);
+    const markLineData = shownMarkers
       .map((m) => {
+        const position = m.axis === 'y' ? 'insideEndTop' : positions[vertical.indexOf(m)];
         const colour = m.emphasis ? theme.accent : theme.muted;
         return {
           name: m.label,
@@ -212,7 +223,7 @@ export function XYChart({
           label: {
             show: true,
             formatter: m.label,
-            position: 'insideEndTop',
+            position,
             color: colour,
             fontFamily: theme.fontText,
             fontSize: 10,

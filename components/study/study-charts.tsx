@@ -9,6 +9,7 @@ import { fixed, formatDeg, formatFNumber, formatNm, formatRatio, formatSignedNm,
 import { findLine } from '@/lib/engine/lines';
 import type { AngleBin } from '@/lib/engine/types';
 import { EXPLORER_HIGHLIGHT_WIDTHS_NM } from '@/lib/study/explorer';
+import { fNumberCaption } from '@/lib/study/captions';
 import type { StudyResults } from '@/lib/study/compute';
 import type { CurveStudy, StudySettings } from '@/lib/study/types';
 import { formatCurveId } from '@/lib/labels';
@@ -28,17 +29,6 @@ function angleStats(bins: AngleBin[]) {
   const total = used.reduce((t, b) => t + b.weight, 0);
   const mean = used.reduce((t, b) => t + b.deg * b.weight, 0) / total;
   return { from: used[0].deg - 0.25, to: used[used.length - 1].deg + 0.25, mean };
-}
-
-/** The fastest f-number on the sweep that still keeps `level` of the line, scanning from slow to fast. */
-function fastestKeeping(st: CurveStudy, level: number): number | null {
-  const { x, y } = st.fSweep;
-  let found: number | null = null;
-  for (let i = x.length - 1; i >= 0; i--) {
-    if (y[i] >= level) found = x[i];
-    else break;
-  }
-  return found;
 }
 
 export function StudyCharts({ results, settings, studies }: { results: StudyResults; settings: StudySettings; studies: CurveStudy[] }) {
@@ -187,16 +177,12 @@ export function StudyCharts({ results, settings, studies }: { results: StudyResu
               summary={
                 studies.length ? (
                   <ul className="space-y-1">
-                    {studies.map((st) => {
-                      const f80 = fastestKeeping(st, 0.8);
-                      return (
-                        <li key={st.curve.key}>
-                          <span className="text-ink">{seriesName(st)}</span>:{' '}
-                          {f80 === null ? 'stays below 80 % of the line even at f/10' : f80 <= 1 ? 'keeps 80 % of the line even at f/1' : `keeps 80 % of the line down to ${formatFNumber(f80)}`} (with a{' '}
-                          {formatRatio(settings.optic.obstruction)} obstruction).
-                        </li>
-                      );
-                    })}
+                    {studies.map((st) => (
+                      <li key={st.curve.key} data-testid="f-number-caption" data-curve={st.curve.key}>
+                        <span className="text-ink">{seriesName(st)}</span>: {fNumberCaption(st.fSweep.x, st.fSweep.y, 0.8)} (with a {formatRatio(settings.optic.obstruction)}{' '}
+                        obstruction{settings.preShiftNm !== 0 ? ` and a ${formatSignedNm(settings.preShiftNm)} pre-shift` : ''}).
+                      </li>
+                    ))}
                   </ul>
                 ) : null
               }

@@ -10,6 +10,7 @@ import catalogueChanges from './0009_catalogue_changes';
 import curvePageReads from './0010_curve_page_reads';
 import polarisedNeff from './0011_polarised_neff';
 import rawFilesInBucket from './0012_raw_files_in_bucket';
+import catalogueUnits from './0013_catalogue_units';
 
 export type Migration = {
   name: string;
@@ -18,4 +19,4 @@ export type Migration = {
 };
 
 // Append new migrations here, in order; never edit one that has shipped.
-export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, coating, rateLimits, catalogueChanges, curvePageReads, polarisedNeff, rawFilesInBucket];
+export const migrations: Migration[] = [foundation, catalogue, catalogueVersion, mailQueueSessions, appRoleAndGuards, coating, rateLimits, catalogueChanges, curvePageReads, polarisedNeff, rawFilesInBucket, catalogueUnits];

@@ -8,9 +8,10 @@
 
 import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
 import { bucketKey, FWHM_BUCKETS, type SearchParams, type Sort } from './search-params';
+import { normalCwlSql } from './units';
 
 /** Number columns of a curve the copy keeps as Float64Array (NaN for NULL). */
-export type NumberField = 'cwl' | 'fwhm' | 'peak' | 'aoi' | 'verifiedAt';
+export type NumberField = 'normalCwl' | 'fwhm' | 'peak' | 'aoi' | 'verifiedAt';
 
 /**
  * Which facet leaves the filter out when it counts (facets count as if their own filter were not set);
@@ -29,8 +30,9 @@ export type Filter =
   | { param: 'contributor'; column: string; field: 'contributor'; operator: '='; facet: null; cast: string };
 
 export const FILTERS: readonly Filter[] = [
-  { param: 'cwlMin', column: 'c.cwl_nm', field: 'cwl', operator: '>=', facet: null },
-  { param: 'cwlMax', column: 'c.cwl_nm', field: 'cwl', operator: '<=', facet: null },
+  // the CWL of a filter or an order is at normal incidence (units.ts)
+  { param: 'cwlMin', column: normalCwlSql('c'), field: 'normalCwl', operator: '>=', facet: null },
+  { param: 'cwlMax', column: normalCwlSql('c'), field: 'normalCwl', operator: '<=', facet: null },
   { param: 'peakMin', column: 'c.peak_t', field: 'peak', operator: '>=', facet: null },
   { param: 'aoiMin', column: 'c.aoi_deg', field: 'aoi', operator: '>=', facet: null },
   { param: 'aoiMax', column: 'c.aoi_deg', field: 'aoi', operator: '<=', facet: null },
@@ -57,7 +59,7 @@ export function activeFilters(p: SearchParams): Filter[] {
  * met for a NOT NULL column); 'first-when-asc' last when descending, first when ascending.
  */
 export const SORT_COLUMNS: Partial<Record<Sort, { column: string; field: NumberField; nulls: 'last' | 'index' | 'first-when-asc' }>> = {
-  cwl: { column: 'c.cwl_nm', field: 'cwl', nulls: 'last' },
+  cwl: { column: normalCwlSql('c'), field: 'normalCwl', nulls: 'last' },
   fwhm: { column: 'c.fwhm_nm', field: 'fwhm', nulls: 'last' },
   peak: { column: 'c.peak_t', field: 'peak', nulls: 'index' },
   newest: { column: 'c.verified_at', field: 'verifiedAt', nulls: 'first-when-asc' },

@@ -23,6 +23,7 @@ import { publicCatalogueSql } from '@/lib/auth/policy';
 import { FINE_INTERVALS, LEVEL_LENGTH, LEVEL_STEPS } from './fitness-grid';
 import { FWHM_EDGES } from './filters';
 import { fitnessCacheBytes } from './cache-budget';
+import { normalCwlNm, unitLeads } from './units';
 
 /** One level of the fitness grid for one line: the stored running sums (LEVEL_LENGTH per row), as in curve_fitness. */
 export interface GridBlock {
@@ -67,10 +68,24 @@ export interface Snapshot {
   lineMask: Int32Array;
   /** 1 + PostgreSQL's width_bucket over the FWHM facet's edges, 0 when the FWHM is unknown. */
   fwhmBucket: Uint8Array;
+  /** CWL at normal incidence (units.ts), NaN when unknown: the CWL filter and order. */
+  normalCwl: Float64Array;
+  /** Index into `units` of the curve's set (set key and revision), -1 for a curve without a set. */
+  unit: Int32Array;
+  units: string[];
   blocks: Map<string, Promise<GridBlock>>;
   fine: Map<string, Promise<FineBlock>>;
   /** Blocks in order of last use, for the memory budget. */
   used: Map<string, number>;
+}
+
+const leads = new WeakMap<Snapshot, Uint8Array>();
+
+/** 1 for a curve that stands for its unit in the copy (units.ts), worked out once per copy. */
+export function unitLeadsOf(s: Snapshot): Uint8Array {
+  let l = leads.get(s);
+  if (!l) leads.set(s, (l = unitLeads(s.ids, s.aoi, s.unit)));
+  return l;
 }
 
 /** Thrown when the library changed while a block was loading; the search starts over on a fresh copy. */
@@ -101,17 +116,17 @@ export async function currentVersion(): Promise<string> {
 
 type SnapshotRow = {
   v: string; id: number | null; cwl: number | null; fwhm: number | null; peak: number; aoi: number; verified: number | null;
-  instrument: string; contributor: string; lines: string;
+  instrument: string; contributor: string; lines: string; neff: number | null; unit: string | null;
 };
 
 const SNAPSHOT_COLUMNS = `c.id, c.cwl_nm AS cwl, c.fwhm_nm AS fwhm, c.peak_t AS peak, c.aoi_deg AS aoi,
             (extract(epoch FROM c.verified_at) * 1000000)::float8 AS verified, c.instrument, c.contributor_id AS contributor,
-            array_to_string(c.lines, ' ') AS lines`;
+            array_to_string(c.lines, ' ') AS lines, c.n_eff AS neff, c.set_key || '|' || c.revision AS unit`;
 
 async function loadSnapshot(): Promise<Snapshot> {
   // One statement, so the version and the rows are of the same moment (the LEFT JOIN from the
-  // version row answers even for an empty catalogue); the columns all sit in the covering
-  // indexes, so it is an index-only scan. Many plain rows: node-postgres copes far better with
+  // version row answers even for an empty catalogue). The unit and n_eff columns (units.ts) are
+  // read from the table itself, not only the covering indexes. Many plain rows: node-postgres copes far better with
   // them than with one row of several megabytes.
   const rows = await db().sequelize.query<SnapshotRow>(
     `SELECT k.version::text AS v, ${SNAPSHOT_COLUMNS}
@@ -140,6 +155,9 @@ function emptySnapshot(version: string, n: number): Snapshot {
     firstLine: new Int8Array(n),
     lineMask: new Int32Array(n),
     fwhmBucket: new Uint8Array(n),
+    normalCwl: new Float64Array(n),
+    unit: new Int32Array(n),
+    units: [],
     blocks: new Map(),
     fine: new Map(),
     used: new Map(),
@@ -150,7 +168,14 @@ function emptySnapshot(version: string, n: number): Snapshot {
 function interner(s: Snapshot) {
   const who = new Map(s.contributors.map((c, k) => [c, k]));
   const sets = new Map(s.lineSets.map((l, k) => [l.join(' '), k]));
+  const units = new Map(s.units.map((u, k) => [u, k]));
   return {
+    unit(key: string | null): number {
+      if (key === null) return -1;
+      let u = units.get(key);
+      if (u === undefined) units.set(key, (u = s.units.push(key) - 1));
+      return u;
+    },
     contributor(id: string): number {
       let c = who.get(id);
       if (c === undefined) who.set(id, (c = s.contributors.push(id) - 1));
@@ -186,6 +211,8 @@ function fillRow(s: Snapshot, i: number, r: SnapshotRow, names: ReturnType<typeo
     if (k >= 0) s.lineMask[i] |= 1 << k;
   }
   s.fwhmBucket[i] = Number.isNaN(s.fwhm[i]) ? 0 : widthBucket(s.fwhm[i]) + 1;
+  s.normalCwl[i] = normalCwlNm(r.cwl, s.aoi[i], r.neff) ?? NaN;
+  s.unit[i] = names.unit(r.unit);
 }
 
 /** Row j of `to` is row i of `from`. */
@@ -202,6 +229,8 @@ function copyRow(from: Snapshot, i: number, to: Snapshot, j: number) {
   to.firstLine[j] = from.firstLine[i];
   to.lineMask[j] = from.lineMask[i];
   to.fwhmBucket[j] = from.fwhmBucket[i];
+  to.normalCwl[j] = from.normalCwl[i];
+  to.unit[j] = from.unit[i];
 }
 
 function buildSnapshot(version: string, sorted: SnapshotRow[]): Snapshot {
@@ -516,6 +545,7 @@ function mergeSnapshot(old: Snapshot, version: string, changed: Set<number>, fre
   const s = emptySnapshot(version, kept + fresh.length);
   s.contributors = [...old.contributors];
   s.lineSets = [...old.lineSets];
+  s.units = [...old.units];
   const names = interner(s);
   const from = new Int32Array(s.n);
   let i = 0;

@@ -16,7 +16,7 @@ import type { Pupil } from '@/lib/engine/pupil';
 import { INSTRUMENTS, LINE_IDS } from '@/lib/schemas/submission';
 import { FINE_INTERVALS, LEVEL_LENGTH, SCALE, applyOffNormal, offNormalCoefficients, offNormalThroughput, type OffNormalCoefficients, type Weights } from './fitness-grid';
 import { curvePointsByIds } from './points';
-import { catalogueCopy, dropCatalogueCopy, fineBlock, gridBlock, StaleCopy, type FineBlock, type GridBlock, type Snapshot } from './memory-index';
+import { catalogueCopy, dropCatalogueCopy, fineBlock, gridBlock, StaleCopy, unitLeadsOf, type FineBlock, type GridBlock, type Snapshot } from './memory-index';
 import { hasFitness, type SearchParams, type Sort } from './search-params';
 import { activeFilters, bucketIndex, groupKey, groupOf, GROUPS_PER_LINE_SET, nullsFirst, PACKING, SORT_COLUMNS, type Filter } from './filters';
 
@@ -82,7 +82,9 @@ async function run(s: Snapshot, p: SearchParams & { fNumber: number }, w: Weight
   };
   const { aoi, firstLine, instrument, fwhmBucket } = s;
   const mask = new Uint8Array(n);
-  for (let i = 0; i < n; i++) if (all(common, i)) mask[i] = 1;
+  // a set's other curves give way to its lead: one row per unit (units.ts)
+  const lead = unitLeadsOf(s);
+  for (let i = 0; i < n; i++) if (lead[i] && all(common, i)) mask[i] = 1;
 
   let tau: Float64Array | null = null;
   if (needTau) {

@@ -26,6 +26,7 @@ import { curvePointsByIds } from './points';
 import { answeredInMemory, searchInMemory, type CountGroup } from './memory-search';
 import { currentVersion } from './memory-index';
 import { copyServes, readCatalogue } from './read-source';
+import { normalCwlNm, unitLeadSql, unitSetsOf, type UnitSet } from './units';
 import { byContrast, contrastOf, CONTRAST_CANDIDATES, CONTRAST_REFERENCE_BOX_NM, DEFAULT_CONTRAST_SKY } from './contrast';
 
 export interface SearchItem {
@@ -34,12 +35,17 @@ export interface SearchItem {
   label: string;
   maker: string | null;
   lines: string[];
+  /** CWL at normal incidence (units.ts), what the CWL filter and order use. */
   cwlNm: number | null;
+  /** CWL as measured, at `aoiDeg`. */
+  measuredCwlNm: number | null;
   fwhmNm: number | null;
   peakT: number;
   status: string;
   instrument: string;
   aoiDeg: number;
+  /** The unit's curve set: every angle it was measured at and the curve of each (one row stands for the unit). */
+  set: UnitSet;
   verifiedAt: string | null;
   throughput?: number;
   /** Throughput at ∓ the curve's wavelength-scale uncertainty (declared, else its instrument's default). */
@@ -133,7 +139,8 @@ export interface Plan {
  */
 function clauses(plan: Plan, s: SqlParts, withFitness = true, omit: ('line' | 'method' | 'fwhm')[] = []): Built {
   const { p, actor } = plan;
-  const common: string[] = [visibility(actor, p, s)];
+  // one row per unit: a set's other curves are left out of the rows, the counts and the facets (units.ts)
+  const common: string[] = [visibility(actor, p, s), unitLeadSql('c')];
   let query: string | null = null;
   let rank: string | null = null;
   if (p.q) {
@@ -460,18 +467,21 @@ async function assemble(p: SearchParams, pl: Plan, o: { sort: Sort; dir: 'asc' |
   facets.method.sort((a, z) => z.count - a.count || a.key.localeCompare(z.key));
   facets.fwhm.sort((a, z) => parseFloat(a.key) - parseFloat(z.key));
 
+  const sets = await unitSetsOf(rows.map((r) => ({ id: r.id, aoiDeg: r.aoi_deg })));
   const items: SearchItem[] = rows.map((r) => ({
     id: r.id,
     title: titleOf(r),
     label: r.label,
     maker: r.maker,
     lines: r.lines,
-    cwlNm: r.cwl_nm,
+    cwlNm: normalCwlNm(r.cwl_nm, r.aoi_deg, r.n_eff),
+    measuredCwlNm: r.cwl_nm,
     fwhmNm: r.fwhm_nm,
     peakT: r.peak_t,
     status: r.status,
     instrument: r.instrument,
     aoiDeg: r.aoi_deg,
+    set: sets.get(r.id) ?? { aoiDeg: [r.aoi_deg], curveIds: [r.id] },
     verifiedAt: r.verified_at ? new Date(r.verified_at).toISOString() : null,
     ...(r.snippet && r.snippet.includes(MARK_START) ? { snippet: snippetHtml(r.snippet) } : {}),
     sparkline: { wavelengthNm: r.spark_w ?? [], transmission: r.spark_t ?? [] },
@@ -526,5 +536,10 @@ async function matchingIds(p: SearchParams, limit: number): Promise<{ ids: numbe
      ORDER BY ${orderBy(sort, dir, b)} LIMIT ${b.s.param(limit + 1)}`,
     { bind: b.s.bind, type: QueryTypes.SELECT },
   );
-  return { ids: rows.slice(0, limit).map((r) => r.id), total: rows.length ? Number(rows[0].total) : 0 };
+  // the search lists units; an export holds every curve of each, the lead first, then by angle
+  const leads = rows.slice(0, limit).map((r) => r.id);
+  const sets = await unitSetsOf(leads.map((id) => ({ id, aoiDeg: 0 })));
+  const ids = leads.flatMap((id) => sets.get(id)!.curveIds);
+  const units = rows.length ? Number(rows[0].total) : 0;
+  return { ids: ids.slice(0, limit), total: units + ids.length - leads.length };
 }

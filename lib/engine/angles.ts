@@ -23,7 +23,11 @@ export function angleScale(thetaDeg: number, nEff: number): number {
   return angleScaleOfSin2(s * s, 1 / (nEff * nEff));
 }
 
-/** s(θ) as SQL, for a θ in degrees that an SQL expression gives (PostgreSQL's sin and radians). */
-export function angleScaleSql(thetaDegSql: string, nEff: number): string {
+/**
+ * s(θ) as SQL, for a θ in degrees that an SQL expression gives (PostgreSQL's sin and radians),
+ * and an n_eff given as a number or as an SQL expression of its own.
+ */
+export function angleScaleSql(thetaDegSql: string, nEff: number | string): string {
+  if (typeof nEff === 'string') return `sqrt(1 - sin(radians(${thetaDegSql}))^2 / (${nEff})^2)`;
   return `sqrt(1 - sin(radians(${thetaDegSql}))^2 * ${(1 / (nEff * nEff)).toPrecision(15)})`;
 }

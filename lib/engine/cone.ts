@@ -55,6 +55,15 @@ function assertShift(p: ShiftParams): void {
 
 export { angleScale };
 
+/**
+ * A wavelength measured at incidence θ brought to normal incidence: λ0 = λθ / s(θ)
+ * (docs/model.md §Angle shift). The catalogue's CWL column and filter, the fitness
+ * grid and the study all use this one rule.
+ */
+export function normalIncidenceNm(measuredNm: number, thetaDeg: number, nEff: number): number {
+  return thetaDeg > 0 ? measuredNm / angleScale(thetaDeg, nEff) : measuredNm;
+}
+
 /** Temperature part of Δ: k·(t − t_ref); zero unless both k and t are given. */
 export function temperatureShiftNm(p: ShiftParams): number {
   if (p.tempCoeffNmPerC === undefined || p.tempC === undefined) return 0;

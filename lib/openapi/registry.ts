@@ -77,9 +77,9 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
   {
     method: 'get', path: '/api/curves', tag: 'Curves', access: 'public',
     summary: 'Search curves by words, numbers and fitness for an optic',
-    description: 'A visitor sees verified curves; a contributor also their own; a moderator all. With `fNumber` (+ `obstruction`, `nEff`, `fieldAngleDeg`) each result carries its line throughput on that optic, `minThroughput` keeps those that reach it, and the order defaults to line throughput. The words of `q` are read first: line names, widths, optics and thresholds become filters (`understood`), the rest stays `words`. Number parameters may carry their unit (`f/2`, `80 %`, `5 nm`). An empty answer carries `nearest`: the best throughput on the optic and relaxations with true counts.',
+    description: 'A visitor sees verified curves; a contributor also their own; a moderator all. With `fNumber` (+ `obstruction`, `nEff`, `fieldAngleDeg`) each result carries its line throughput on that optic (on axis unless `fieldAngleDeg` is given), `minThroughput` keeps those that reach it, and the order defaults to line throughput. One item per physical unit: a curve set measured at several angles is one item, its lead curve (lowest AOI), with `set: { aoiDeg, curveIds }`; `total` and the facets count units. `cwlNm` (and `cwlMin`, `cwlMax`, `sort=cwl`) is at normal incidence, `measuredCwlNm` as measured. The words of `q` are read first: line names, widths, optics and thresholds become filters (`understood`), the rest stays `words`. Number parameters may carry their unit (`f/2`, `80 %`, `5 nm`). An empty answer carries `nearest`: the best throughput on the optic and relaxations with true counts.',
     query: search,
-    responses: { 200: { description: 'One page of results, the total and facet counts; with q what its words were read as; when empty, the nearest answers.', schema: r.searchResult }, ...invalid },
+    responses: { 200: { description: 'One page of units, the total and facet counts; with q what its words were read as; when empty, the nearest answers.', schema: r.searchResult }, ...invalid },
     example: { query: { q: 'H-alpha 5 nm', fNumber: 'f/2.5', obstruction: '0.36', minThroughput: '50 %', pageSize: '5' } },
   },
   {

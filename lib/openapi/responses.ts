@@ -23,12 +23,16 @@ export const searchItem = z.looseObject({
   label: z.string(),
   maker: z.string().nullable(),
   lines: z.array(z.string()),
-  cwlNm: nm.nullable(),
+  cwlNm: nm.nullable().describe('CWL at normal incidence: the measured CWL brought there with the set\'s fitted n_eff, else 2.0 (the CWL filter and order use it).'),
+  measuredCwlNm: nm.nullable().describe('CWL as measured, at aoiDeg.'),
   fwhmNm: z.number().nullable(),
   peakT: fraction,
   status: z.string(),
   instrument: z.string(),
   aoiDeg: z.number(),
+  set: z
+    .object({ aoiDeg: z.array(z.number()), curveIds: z.array(z.number().int()) })
+    .describe('The unit this row stands for: every angle it was measured at and the curve of each, lowest angle first (a curve alone is a set of one).'),
   throughput: fraction.optional().describe('Line throughput on the named optic (fitness searches only).'),
   speedEquivalentFNumber: z.number().nullable().optional(),
 });

@@ -17,6 +17,7 @@ import type { AngleBin, ConeModelInput, CurvePoints, Optic, ShiftParams } from '
 import { explorerGrid, type ExplorerGrid, type ExplorerMarker } from './explorer';
 import type { CurveStudy, NeffSource, Series, StudyCurve, StudySettings } from './types';
 import { defaultTempCoeff } from '@/lib/engine/temperature';
+import { headlineFieldAngle } from '@/lib/optics/headline-field';
 
 /** Used when neither the reader nor a fitted set gives an effective index (docs/model.md §Angle shift: mid-range of hard-coated narrowband filters). */
 export const DEFAULT_N_EFF = 2.0;
@@ -180,7 +181,8 @@ function sweep(c: PreparedCurve, lineNm: number, xs: number[], pupilAt: (x: numb
 export function studyCurve(curve: StudyCurve, s: StudySettings): CurveStudy {
   const n = nEffFor(curve, s);
   const ref = refTempFor(curve, s);
-  const input = modelInput(curve, s, 0, true);
+  // the headline's field point (headline-field.ts): on axis; the edge comes from the field sweep below
+  const input = modelInput(curve, s, headlineFieldAngle(), true);
   const onAxis = runConeModel(input);
 
   const c = prepare(curve.points);

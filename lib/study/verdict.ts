@@ -8,6 +8,7 @@ import { formatFNumber, formatNm, formatRatio, formatSignedNm, formatTransmissio
 import { CUSTOM_LINE_ID } from '@/lib/engine/cone-study';
 import { findLine } from '@/lib/engine/lines';
 import type { CurveStudy, StudyOptic } from './types';
+import { fieldEdgeWords, fieldPointWords, headlineFieldAngle } from '@/lib/optics/headline-field';
 
 export type Tone = 'good' | 'fair' | 'poor' | 'neutral';
 
@@ -72,7 +73,7 @@ export function verdictFor(study: CurveStudy, optic: StudyOptic, preShiftNm: num
     value: formatTransmission(tau),
     raw: tau,
     tone: toneOf(tau),
-    text: `of ${shortName} reaches the sensor on axis through ${formatFNumber(optic.fNumber)} with a ${formatRatio(optic.obstruction)} obstruction; ${formatTransmission(primary.collimated)} in a collimated beam.`,
+    text: `of ${shortName} reaches the sensor ${fieldPointWords(headlineFieldAngle())} through ${formatFNumber(optic.fNumber)} with a ${formatRatio(optic.obstruction)} obstruction; ${formatTransmission(primary.collimated)} in a collimated beam.`,
   });
 
   const neq = primary.speedEquivalentFNumber;
@@ -91,11 +92,11 @@ export function verdictFor(study: CurveStudy, optic: StudyOptic, preShiftNm: num
     const e = study.edge;
     items.push({
       key: 'edge',
-      label: 'At the field edge',
+      label: `At the field edge`,
       value: formatTransmission(e.throughput),
       raw: e.throughput,
       tone: toneOf(e.throughput),
-      text: `With a ${fixed(e.fieldAngleDeg, 1)}° chief ray the line keeps ${formatTransmission(e.throughput)}${e.speedEquivalentFNumber !== null ? `, like ${formatFNumber(e.speedEquivalentFNumber)}` : ''}.`,
+      text: `${fieldEdgeWords(e.fieldAngleDeg).replace(/^at/, 'At')} (a ${fixed(e.fieldAngleDeg, 1)}° chief ray) the line keeps ${formatTransmission(e.throughput)}${e.speedEquivalentFNumber !== null ? `, like ${formatFNumber(e.speedEquivalentFNumber)}` : ''}.`,
     });
   }
 

@@ -42,8 +42,11 @@ describe('the catalogue in a browser', () => {
     await page.getByLabel('Search words').fill('hydrogen alpha');
     await page.getByRole('button', { name: 'Search', exact: true }).click();
     await settled(page, /q=hydrogen/);
-    const [{ n: haCount }] = await query<{ n: string }>(`SELECT count(*) AS n FROM curves WHERE status = 'verified' AND 'Ha' = ANY(lines)`);
-    await expect.poll(() => page.getByTestId('result-count').textContent()).toContain(`${Number(haCount)} curves`);
+    // one row per physical unit: a set measured at several angles counts once
+    const [{ n: haCount }] = await query<{ n: string }>(
+      `SELECT count(DISTINCT coalesce(set_key || '|' || revision, 'c' || id)) AS n FROM curves WHERE status = 'verified' AND 'Ha' = ANY(lines)`,
+    );
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toContain(`${Number(haCount)} units`);
     await screenshot(page, 'catalogue-search-1440');
 
     // 2. narrow by FWHM: at most 5 nm

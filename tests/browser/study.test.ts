@@ -280,3 +280,60 @@ describe('saving optics', () => {
     await context.close();
   });
 });
+
+describe('the f-number caption describes the plotted line', () => {
+  it('names every stretch above 80 % of a pre-shifted curve, as the downloaded series shows it, also at 390 px', async () => {
+    // a pre-shifted filter (its maker moved the passband red for fast optics): with some of them the
+    // line sits too far on the blue flank at slow f-numbers, and the cone brings it in only over a stretch
+    const candidates = await query<{ id: number; line: string }>(
+      `SELECT id, lines[1] AS line FROM curves WHERE status = 'verified' AND declared_pre_shift_nm > 0 AND set_key IS NULL AND aoi_deg = 0 ORDER BY id`,
+    );
+    let picked: { id: number; line: string } | null = null;
+    for (const c of candidates) {
+      const at = async (fNumber: number) => (await cone({ curveId: c.id, optic: { fNumber, obstruction: 0 }, nEff: 2, lines: [c.line] })).lines[0].throughput;
+      if ((await at(10)) < 0.8 && Math.max(await at(2.5), await at(3.5)) >= 0.8) {
+        picked = c;
+        break;
+      }
+    }
+    // the demo world holds such filters (a 2.5 nm and a 4.5 nm Hα unit, seeds/world)
+    expect(picked).not.toBeNull();
+
+    for (const width of [1440, 390]) {
+      const context = await browser.newContext({ viewport: { width, height: 1000 }, acceptDownloads: true });
+      const page = await context.newPage();
+      await page.goto(`${BASE}/study?curve=${picked!.id}&f=2.5&obs=0&n=2&line=${picked!.line}`);
+      await settledVerdict(page);
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(width);
+      const caption = (await page.getByTestId('f-number-caption').first().textContent())!;
+
+      // the plotted series, as the page's own table download carries it
+      const [csvDownload] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download all tables (CSV)' }).click()]);
+      const csv = await readFile((await csvDownload.path())!, 'utf8');
+      const block = csv.split('\r\n\r\n').find((b) => b.includes('# line throughput against f-number'))!;
+      const rows = block.split('\r\n').slice(2).filter(Boolean).map((l) => l.split(',').map(Number));
+      const xs = rows.map((r) => r[0]);
+      const ys = rows.map((r) => r[1]);
+      expect(xs[0]).toBe(1);
+      expect(xs[xs.length - 1]).toBe(10);
+
+      // the wrong old words, and the truth: above 80 % somewhere, below at f/10
+      expect(caption).not.toMatch(/stays below/);
+      expect(ys[ys.length - 1]).toBeLessThan(0.8);
+      // the stretches it names come before "and less elsewhere", which names the plotted range
+      const named = caption.split(', and less elsewhere')[0];
+      const stated = [...named.matchAll(/from f\/(\d+\.\d) to f\/(\d+\.\d)/g)].map((m) => [Number(m[1]), Number(m[2])] as const);
+      expect(stated.length).toBeGreaterThan(0);
+      // every plotted sample inside a stated stretch (half a rounding step in) is at 80 % or more,
+      // every sample outside all of them (half a step out) is below
+      for (let i = 0; i < xs.length; i++) {
+        const inside = stated.some(([a, b]) => xs[i] >= a + 0.05 && xs[i] <= b - 0.05);
+        const outside = stated.every(([a, b]) => xs[i] < a - 0.05 || xs[i] > b + 0.05);
+        if (inside) expect(ys[i], `f/${xs[i]}`).toBeGreaterThanOrEqual(0.8);
+        if (outside) expect(ys[i], `f/${xs[i]}`).toBeLessThan(0.8);
+      }
+      await screenshot(page, `study-caption-${width}`);
+      await context.close();
+    }
+  });
+});

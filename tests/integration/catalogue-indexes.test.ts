@@ -46,12 +46,21 @@ describe('searches use their indexes', () => {
 
   it('parametric filters and sorts read covering indexes, never the wide curve rows', async () => {
     // lines, instrument, CWL, FWHM, peak, AOI and contributor are all carried in these indexes
-    const covering = /Index (Only )?Scan (Backward )?using curves_(catalogue|verified_cwl|verified_fwhm|verified_peak)_idx/;
+    const covering = /Index (Only )?Scan (Backward )?using curves_(catalogue|verified_cwl|verified_cwl0|verified_fwhm|verified_peak)_idx/;
     for (const qs of ['line=OIII&method=spectrograph&sort=newest', 'fwhmMax=5&sort=fwhm', 'line=Ha&sort=peak', 'cwlMin=495&cwlMax=505&sort=cwl']) {
       const p = await plan(qs, 'page', 'visitor', { bitmaps: false });
       expect(p, qs).toMatch(covering);
       expect(p, qs).not.toMatch(/Seq Scan on curves/);
     }
+  });
+
+  it('one row per unit: a set member gives way to its lead through the unit index, not by reading the curves', async () => {
+    const p = await plan('line=Ha&sort=newest', 'page', 'visitor', { bitmaps: false });
+    expect(p).toMatch(/curves_unit_set_idx/);
+    expect(p).not.toMatch(/Seq Scan on curves/);
+    // and the CWL at normal incidence is read sorted from its own index
+    const cwl = await plan('cwlMin=650&cwlMax=670&sort=cwl', 'page', 'visitor', { bitmaps: false });
+    expect(cwl).toMatch(/Index (Only )?Scan (Backward )?using curves_verified_cwl0_idx/);
   });
 
   it('the fitness filter reads the fitness grid through its key', async () => {

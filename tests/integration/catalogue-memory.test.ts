@@ -14,7 +14,7 @@ afterAll(() => closeSequelize());
 const moderator: Actor = { id: '00000000-0000-0000-0000-000000000000', email: 'm@x', name: null, role: 'moderator', via: 'session' };
 
 /** What a reader sees of an answer: the page in order, the total and every facet count. */
-const seen = (r: SearchResult) => ({ ids: r.items.map((i) => i.id), total: r.total, facets: r.facets, taus: r.items.map((i) => i.throughput) });
+const seen = (r: SearchResult) => ({ ids: r.items.map((i) => i.id), total: r.total, facets: r.facets, taus: r.items.map((i) => i.throughput), sets: r.items.map((i) => i.set), cwl: r.items.map((i) => [i.cwlNm, i.measuredCwlNm]) });
 
 // Fitness searches of every shape the in-process copy answers: line named or not, each curve's own
 // n_eff or a named one (off-normal curves then come from their fine level), field angles, every
@@ -41,6 +41,9 @@ const SEARCHES = [
   'line=Ha&fNumber=2.5&fwhmBucket=5-7&fwhmBucket=3-4&fwhmMax=6&sort=fwhm&dir=asc',
   'fNumber=2&fwhmBucket=30%2B&fwhmBucket=0-1&sort=cwl',
   'line=OIII&fNumber=2.2&cwlMin=495&cwlMax=505&aoiMax=0&sort=peak&dir=asc',
+  // the CWL filter and order at normal incidence, over units
+  'fNumber=2.5&obstruction=0.36&sort=cwl&cwlMin=650&cwlMax=670&pageSize=50',
+  'fNumber=2&sort=cwl&dir=asc&page=2&pageSize=8',
 ];
 
 describe('the in-process copy answers fitness searches exactly as the SQL does', () => {
@@ -290,5 +293,90 @@ describe('whole curves in binary form', () => {
       expect(readFloat8Array(r.t)).toEqual(r.tt.split(',').map(Number));
     }
     expect(() => readFloat8Array(Buffer.from([0, 0, 0, 1, 0, 0, 0, 0, 0, 0, 0, 23, 0, 0, 0, 0, 0, 0, 0, 1]))).toThrow(/float8/);
+  });
+});
+
+describe('one row per unit, its CWL at normal incidence', () => {
+  const sequelize = getSequelize();
+
+  it('lists each multi-angle set once, by its lowest angle, with every angle and curve, and counts units both ways', async () => {
+    const sets = await sequelize.query<{ key: string; ids: number[]; aois: number[] }>(
+      `SELECT set_key || '|' || revision AS key, array_agg(id ORDER BY aoi_deg, id) AS ids, array_agg(aoi_deg ORDER BY aoi_deg, id) AS aois
+       FROM curves WHERE status = 'verified' AND set_key IS NOT NULL GROUP BY 1 HAVING count(*) > 1`,
+      { type: QueryTypes.SELECT },
+    );
+    // the demo world measures some units at 0, 4, 8, 12 and 16° (seeds/world)
+    expect(sets.length).toBeGreaterThan(0);
+    const [{ units }] = await sequelize.query<{ units: string }>(
+      `SELECT count(DISTINCT coalesce(set_key || '|' || revision, 'c' || id)) AS units FROM curves WHERE status = 'verified'`,
+      { type: QueryTypes.SELECT },
+    );
+    for (const qs of ['pageSize=100', 'fNumber=3&pageSize=100']) {
+      const p = parseSearchParams(new URLSearchParams(qs));
+      for (const r of [await searchCurves(null, p, { memory: false }), ...(qs.includes('fNumber') ? [await searchCurves(null, p)] : [])]) {
+        expect(r.total, qs).toBe(Number(units));
+        const ids = r.items.map((i) => i.id);
+        for (const set of sets) {
+          // the lead only, carrying the whole set
+          expect(ids.filter((id) => set.ids.includes(id)), qs).toEqual([set.ids[0]]);
+          const item = r.items.find((i) => i.id === set.ids[0])!;
+          expect(item.set).toEqual({ aoiDeg: set.aois, curveIds: set.ids });
+        }
+        // a curve alone is a set of one
+        const single = r.items.find((i) => !sets.some((s) => s.ids.includes(i.id)))!;
+        expect(single.set).toEqual({ aoiDeg: [single.aoiDeg], curveIds: [single.id] });
+        // the facets count units too
+        expect(r.facets.method.reduce((t, f) => t + f.count, 0)).toBe(Number(units));
+      }
+    }
+    // an export of the same search still holds every curve of every unit, each set lead first
+    const { matchingVerifiedIds } = await import('@/lib/catalogue/search');
+    const exported = await matchingVerifiedIds(parseSearchParams(new URLSearchParams('')), 10_000);
+    const [{ curves }] = await sequelize.query<{ curves: string }>(`SELECT count(*) AS curves FROM curves WHERE status = 'verified'`, { type: QueryTypes.SELECT });
+    expect(exported.total).toBe(Number(curves));
+    expect(new Set(exported.ids).size).toBe(Number(curves));
+    for (const set of sets) {
+      const at = exported.ids.indexOf(set.ids[0]);
+      expect(exported.ids.slice(at, at + set.ids.length)).toEqual(set.ids);
+    }
+  });
+
+  it('gives the CWL at normal incidence by the engine\'s rule, the SQL filter and order agreeing with it, and keeps the measured one', async () => {
+    const { normalCwlNm, normalCwlSql } = await import('@/lib/catalogue/units');
+    const rows = await sequelize.query<{ id: number; cwl_nm: number | null; aoi_deg: number; n_eff: number | null; v: number | null }>(
+      `SELECT c.id, c.cwl_nm, c.aoi_deg, c.n_eff, ${normalCwlSql('c')} AS v FROM curves c WHERE c.status = 'verified'`,
+      { type: QueryTypes.SELECT },
+    );
+    const off = rows.filter((r) => r.aoi_deg > 0 && r.cwl_nm !== null);
+    expect(off.length).toBeGreaterThan(0);
+    for (const r of rows) {
+      if (r.cwl_nm === null) continue;
+      expect(r.v!, `curve ${r.id}`).toBeCloseTo(normalCwlNm(r.cwl_nm, r.aoi_deg, r.n_eff)!, 9);
+    }
+    // an off-normal curve standing alone: its normal-incidence CWL is redder than measured (docs/model.md §Angle shift)
+    const [alone] = await sequelize.query<{ id: number }>(
+      `SELECT id FROM curves WHERE status = 'verified' AND set_key IS NULL AND aoi_deg >= 5 AND cwl_nm IS NOT NULL ORDER BY aoi_deg DESC, id LIMIT 1`,
+      { type: QueryTypes.SELECT },
+    );
+    expect(alone).toBeDefined();
+    const r = rows.find((x) => x.id === alone.id)!;
+    const normal = normalCwlNm(r.cwl_nm, r.aoi_deg, r.n_eff)!;
+    expect(normal - r.cwl_nm!).toBeGreaterThan(0.2);
+    // a window around the normal-incidence CWL that leaves the measured one out finds it, both ways
+    const mid = (normal + r.cwl_nm!) / 2;
+    for (const qs of [`cwlMin=${mid}&cwlMax=${normal + 0.05}&pageSize=100`, `cwlMin=${mid}&cwlMax=${normal + 0.05}&fNumber=4&pageSize=100`]) {
+      const p = parseSearchParams(new URLSearchParams(qs));
+      const found = await searchCurves(null, p, { memory: false });
+      const item = found.items.find((i) => i.id === alone.id);
+      expect(item, qs).toBeDefined();
+      expect(item!.cwlNm).toBeCloseTo(normal, 9);
+      expect(item!.measuredCwlNm).toBe(r.cwl_nm);
+      expect(found.items.every((i) => i.cwlNm! >= mid && i.cwlNm! <= normal + 0.05)).toBe(true);
+      if (qs.includes('fNumber')) expect(seen(await searchCurves(null, p))).toEqual(seen(found));
+    }
+    // and the CWL order is the normal-incidence one
+    const byCwl = await searchCurves(null, parseSearchParams(new URLSearchParams('sort=cwl&dir=asc&pageSize=100')), { memory: false });
+    const cwls = byCwl.items.map((i) => i.cwlNm).filter((v): v is number => v !== null);
+    expect([...cwls].sort((a, b) => a - b)).toEqual(cwls);
   });
 });

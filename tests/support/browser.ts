@@ -1,4 +1,5 @@
-import { afterEach } from 'vitest';
+import { afterAll, afterEach, beforeAll } from 'vitest';
+import { closeSequelize } from '@/db/connection';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { BASE, DEMO_PASSWORD } from './http';
 
@@ -43,6 +44,19 @@ afterEach(() => {
   const seen = takeCspViolations();
   if (seen.length) throw new Error(`The Content-Security-Policy refused something:\n${[...new Set(seen)].join('\n')}`);
 });
+
+/** One browser for a whole test file (launched before its first test, closed with the database connection after its last). */
+export function browserForFile(): () => Browser {
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    browser = await launch();
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await closeSequelize();
+  });
+  return () => browser!;
+}
 
 // Debian's Chromium, never a downloaded browser.
 export async function launch(): Promise<Browser> {

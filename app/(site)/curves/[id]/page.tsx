@@ -185,7 +185,7 @@ export default async function CurvePage({ params }: Props) {
         <Card title="Derived numbers">
           <dl className="text-sm">
             <Row label="Peak T" testId="derived-peak">{formatTransmission(d.derived.peakT)}</Row>
-            <Row label="CWL (half-maximum centre)" testId="derived-cwl">{formatNm(d.derived.cwlNm)}</Row>
+            <Row label={`CWL (half-maximum centre, as measured at ${formatDeg(d.aoiDeg)})`} testId="derived-cwl">{formatNm(d.derived.cwlNm)}</Row>
             <Row label="FWHM" testId="derived-fwhm">{formatNm(d.derived.fwhmNm)}</Row>
             <Row label="Mean in-band T">{formatTransmission(d.derived.meanInBandT)}</Row>
             <Row label="Effective bandwidth">{formatNm(d.derived.effectiveBandwidthNm)}</Row>
