@@ -1,6 +1,7 @@
-import { afterEach } from 'vitest';
+import { afterAll, afterEach, beforeAll } from 'vitest';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { BASE, DEMO_PASSWORD } from './http';
+import { closeSequelize } from '@/db/connection';
 
 // Every page any browser test opens is watched for Content-Security-Policy violations, which
 // Chromium reports on the console (and pages report as `securitypolicyviolation` events); a
@@ -64,6 +65,19 @@ export async function launch(): Promise<Browser> {
     return page;
   };
   return browser;
+}
+
+/** One Chromium for a test file: launched before its tests, closed with the database pool after them. */
+export function browserForFile(): () => Browser {
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    browser = await launch();
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await closeSequelize();
+  });
+  return () => browser!;
 }
 
 export async function signInAs(page: Page, email: string, password = DEMO_PASSWORD) {
