@@ -31,7 +31,7 @@ describe('administration on a phone', () => {
     await row.getByRole('button', { name: `Disable ${user.email}…` }).click();
     await expect(row.getByRole('group').textContent()).resolves.toMatch(/signed out everywhere/);
     await row.getByRole('button', { name: 'Yes, disable' }).click();
-    await expect.poll(() => row.locator('[data-testid="access-badge"]').getAttribute('data-access')).toBe('disabled');
+    await expect.poll(() => row.locator('[data-testid="access-badge"]').getAttribute('data-access'), { timeout: 15_000 }).toBe('disabled');
     await expect(row.getByRole('button', { name: `Enable ${user.email}…` }).count()).resolves.toBe(1);
     expect((await db().User.findByPk(user.id))!.disabledAt).not.toBeNull();
     await screenshot(page, 'admin-users-390');
