@@ -16,7 +16,7 @@ import type { CompareCurve } from '@/lib/catalogue/compare-board';
 import { INSTRUMENT_NAMES, lineName } from './labels';
 import { SolarCaution, ModelCaution } from './solar-caution';
 import type { OpticChoice } from './types';
-import { formatCurveId } from '@/lib/labels';
+import { LICENCE_SHORT, formatCurveId, labelOf } from '@/lib/labels';
 import { fieldPointWords, headlineFieldAngle, headlineOptic } from '@/lib/optics/headline-field';
 
 type Throughput = { id: string; throughput: number; speedEquivalentFNumber: number | null };
@@ -92,7 +92,7 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
       <div className="space-y-3 rounded-card border border-dashed border-rule bg-panel px-5 py-6">
         <h1 className="text-2xl font-semibold tracking-tight">Compare board</h1>
         <p>No curves on the board yet. Tick up to eight curves in the <Link href="/curves" className="text-accent underline-offset-4 hover:underline">catalogue</Link> and open the board from there; the address of this page then holds your selection, so you can send it.</p>
-        {props.missing.length ? <p className="text-sm text-muted">Not found or not public: curve {props.missing.join(', ')}.</p> : null}
+        {props.missing.length ? <p className="text-sm text-muted">Not found or not public: curve {props.missing.map(formatCurveId).join(', ')}.</p> : null}
       </div>
     );
   }
@@ -109,7 +109,7 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
     ['Effective index', (c) => (c.nEff === null ? `${formatRatio(DEFAULT_N_EFF)} (assumed)` : `${formatRatio(c.nEff)} (fitted)`)],
     ['Instrument', (c) => INSTRUMENT_NAMES[c.instrument] ?? c.instrument],
     ['Contributor', (c) => c.contributor ?? '—'],
-    ['Licence', (c) => c.licence],
+    ['Licence', (c) => labelOf(LICENCE_SHORT, c.licence)],
   ];
 
   return (
@@ -120,7 +120,7 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
           {props.curves.length} of 8 curves · <Link href="/curves" className="text-accent underline-offset-4 hover:underline">add more from the catalogue</Link>
         </span>
       </header>
-      {props.missing.length ? <p className="text-sm text-muted">Not found or not public: curve {props.missing.join(', ')}.</p> : null}
+      {props.missing.length ? <p className="text-sm text-muted">Not found or not public: curve {props.missing.map(formatCurveId).join(', ')}.</p> : null}
       {props.curves.some((c) => c.lines.includes('Ha')) ? <SolarCaution compact /> : null}
 
       <SpectrumChart title="Measured curves on the compare board" series={series} lines={lines} fileName="bandcone-compare" titleAs="h2" />
@@ -128,9 +128,10 @@ export function CompareView(props: { curves: CompareCurve[]; missing: number[]; 
       <section aria-label="Numbers side by side" className="space-y-2">
         <div className="flex flex-wrap items-center gap-3 text-sm">
           <h2 className="font-medium">Numbers side by side</h2>
-          <label className="flex items-center gap-2">
+          {/* On a phone the select takes the row's width and its long option names are cut inside it, not past the screen. */}
+          <label className="flex min-w-0 max-w-full flex-wrap items-center gap-2">
             <span className="text-muted">Line throughput on</span>
-            <select value={opticId} onChange={(e) => setOpticId(e.target.value)} className="max-w-[20rem] rounded-card border border-rule bg-panel px-2 py-1" data-testid="compare-optic">
+            <select value={opticId} onChange={(e) => setOpticId(e.target.value)} className="w-full min-w-0 max-w-full rounded-card border border-rule bg-panel px-2 py-1 sm:w-auto sm:max-w-[20rem]" data-testid="compare-optic">
               {props.searchOptic ? <option value={FROM_SEARCH}>{`From your search · ${describeOptic(props.searchOptic)}`}</option> : null}
               {props.optics.map((o) => (
                 <option key={o.id} value={o.id}>{`${o.mine ? 'Mine: ' : ''}${o.name} · f/${o.fNumber.toFixed(1)}, ${o.obstruction.toFixed(2)}`}</option>

@@ -155,7 +155,8 @@ export function ResultsTable(props: {
       },
       {
         id: 'speed',
-        header: () => <abbr title="Speed-equivalent f-number: the f-number at which an ideal filter of the same peak would collect the same line signal">Like f/…</abbr>,
+        // A whole header: "Like f/…" read as a word cut off.
+        header: () => <abbr title="Speed-equivalent f-number: the f-number at which an ideal filter of the same peak would collect the same line signal">Acts like</abbr>,
         cell: ({ row }) => (row.original.speedEquivalentFNumber === null ? '∞' : formatFNumber(row.original.speedEquivalentFNumber)),
         meta: { numeric: true } satisfies Meta,
       },

@@ -13,7 +13,7 @@ import { MetadataFields, asNumber, type MetadataForm } from './metadata-fields';
 import { NeffPanel } from './neff-panel';
 import { PassbandChart } from './passband-chart';
 import { fileFailure, type PreviewMetadata, type ReaderOptions } from './preview-api';
-import { UploadDashboard, UploadRefused, submitStaged, useSubmissionUppy, type UploadBody } from './uploader';
+import { UploadDropzone, UploadRefused, submitStaged, useSubmissionUppy, type UploadBody } from './uploader';
 
 type Added = { id: string; name: string; size: number; data: Blob };
 type FileMeta = { name: string; aoiDeg?: number; reader?: ReaderOptions; temperatureC?: number; polarization?: 'unpolarized' | 's' | 'p' };
@@ -333,7 +333,7 @@ export function SubmissionWorkbench({ mode }: { mode: WorkbenchMode }) {
               : 'One file for a single measurement, or several for one filter measured at several angles (a curve set). Each file is read and checked as soon as you add it.'}
           </p>
         </div>
-        <UploadDashboard uppy={uppy} note={filesNote} />
+        <UploadDropzone uppy={uppy} note={filesNote} hasFiles={files.length > 0} />
         {revise && files.length === 0 && mode.currentFiles.length > 0 ? (
           <fieldset className="space-y-2 rounded-card border border-rule bg-panel p-4" data-testid="kept-files">
             <legend className="px-1 text-sm font-medium">Keeping the current files</legend>

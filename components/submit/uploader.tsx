@@ -1,12 +1,9 @@
 'use client';
 
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import Uppy, { type Meta } from '@uppy/core';
 import AwsS3 from '@uppy/aws-s3';
-import Dashboard from '@uppy/react/dashboard';
-import '@uppy/core/css/style.min.css';
-import '@uppy/dashboard/css/style.min.css';
-import './uploader.css';
+import { UppyContextProvider, useDropzone } from '@uppy/react';
 import { MAX_FILE_BYTES } from '@/lib/engine/reader/limits';
 import type { Json } from '@/lib/api-client';
 import type { SubmissionAnswer } from '@/moderation/submissions';
@@ -102,20 +99,57 @@ export async function submitStaged(endpoint: string, uppy: SubmissionUppy, metad
   }
 }
 
-export function UploadDashboard({ uppy, note }: { uppy: SubmissionUppy; note: string }) {
+/**
+ * The drop zone: a drop target and a "choose files" button, nothing more. The file cards
+ * below it are the one list of files (Uppy's own dashboard listed each file a second time
+ * and kept 300 px of blank panel on a phone). A file Uppy refuses (type, size, count) is
+ * said here in a sentence.
+ */
+export function UploadDropzone({ uppy, note, hasFiles }: { uppy: SubmissionUppy; note: string; hasFiles: boolean }) {
   return (
-    <Dashboard
-      uppy={uppy}
-      height={300}
-      width="100%"
-      note={note}
-      hideUploadButton
-      proudlyDisplayPoweredByUppy={false}
-      disableThumbnailGenerator
-      showRemoveButtonAfterComplete={false}
-      hidePauseResumeButton
-      fileManagerSelectionType="files"
-      locale={{ strings: { dropPasteFiles: 'Drop curve files here or %{browseFiles}', browseFiles: 'choose files' } }}
-    />
+    <UppyContextProvider uppy={uppy as unknown as Uppy}>
+      <Zone uppy={uppy} note={note} hasFiles={hasFiles} />
+    </UppyContextProvider>
+  );
+}
+
+function Zone({ uppy, note, hasFiles }: { uppy: SubmissionUppy; note: string; hasFiles: boolean }) {
+  const [over, setOver] = useState(false);
+  const [refused, setRefused] = useState<string[]>([]);
+  useEffect(() => {
+    const failed = (file: { name?: string } | undefined, error: Error) => setRefused((r) => [...r.slice(-3), `${file?.name ? `${file.name}: ` : ''}${error.message}`]);
+    uppy.on('restriction-failed', failed);
+    return () => void uppy.off('restriction-failed', failed);
+  }, [uppy]);
+  const { getRootProps, getInputProps } = useDropzone({
+    onDragEnter: () => setOver(true),
+    onDragLeave: () => setOver(false),
+    onDrop: () => {
+      setOver(false);
+      setRefused([]);
+    },
+    onFileInputChange: () => setRefused([]),
+  });
+  // Enter or space on the button already clicks it; the zone's own key handler would open the dialog twice.
+  const { onKeyPress: _keys, ...root } = getRootProps() as ReturnType<typeof getRootProps> & { onKeyPress?: unknown };
+  return (
+    <div className="space-y-1">
+      <div
+        {...root}
+        data-testid="drop-zone"
+        className={`flex cursor-pointer flex-wrap items-center gap-x-3 gap-y-1 rounded-card border border-dashed px-4 text-sm ${hasFiles ? 'py-2' : 'py-6'} ${over ? 'border-accent bg-accent/5' : 'border-rule bg-paper'}`}
+      >
+        {/* .uppy-Dashboard-input: the name the browser tests have always used to add files */}
+        <input {...getInputProps()} className="uppy-Dashboard-input sr-only" tabIndex={-1} aria-hidden="true" data-testid="file-input" />
+        <span>{hasFiles ? 'Drop more files here or' : 'Drop curve files here or'}</span>
+        <button type="button" className="rounded-card border border-accent px-2 py-1 text-accent hover:bg-accent/10">
+          {hasFiles ? 'add files' : 'choose files'}
+        </button>
+      </div>
+      <p className="text-xs text-muted">{note}</p>
+      {refused.map((r) => (
+        <p key={r} role="alert" className="text-sm text-bad">{r}</p>
+      ))}
+    </div>
   );
 }

@@ -173,7 +173,7 @@ describe('choosing curves inside the study', () => {
     await page.getByLabel('Add a curve from the catalogue').fill('OIII');
     const hit = page.getByRole('list', { name: 'Matching curves' }).getByRole('button').first();
     await hit.waitFor();
-    const picked = Number(((await hit.textContent()) ?? '').match(/#(\d+)/)![1]);
+    const picked = Number(((await hit.textContent()) ?? '').match(/C-(\d+)/)![1]);
     await hit.click();
     await page.waitForFunction((id) => new URL(location.href).searchParams.get('curve')?.split(',').includes(String(id)), picked, { timeout: 30_000 });
     await expect.poll(() => page.getByTestId('verdict').count(), { timeout: 30_000 }).toBe(2);

@@ -1,7 +1,7 @@
 import { afterAll, afterEach, beforeAll } from 'vitest';
-import { closeSequelize } from '@/db/connection';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { BASE, DEMO_PASSWORD } from './http';
+import { closeSequelize } from '@/db/connection';
 
 // Every page any browser test opens is watched for Content-Security-Policy violations, which
 // Chromium reports on the console (and pages report as `securitypolicyviolation` events); a

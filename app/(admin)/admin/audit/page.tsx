@@ -4,13 +4,13 @@ import { requirePageRole } from '@/lib/auth/actor';
 import { getAuditLog } from '@/lib/admin/audit';
 import { auditQuerySchema } from '@/lib/schemas/admin';
 import { TARGET_TYPE_LABELS } from '@/lib/labels';
-import { Pager, hrefWith } from '@/components/admin/pager';
+import { FilterSelect, Pager, filterInput as input, hrefWith } from '@/components/admin/filters';
 import { AdminNav } from '../nav';
 
 export const metadata: Metadata = { title: 'Audit log' };
 export const dynamic = 'force-dynamic';
 
-const input = 'w-full min-w-0 rounded-card border border-rule bg-panel px-2 py-1';
+const cell = 'border-b border-rule/60 px-2 py-1.5 max-sm:block max-sm:border-0 max-sm:py-0.5';
 const FAMILIES = [
   { value: 'user.', label: 'Any account action' },
   { value: 'submission.', label: 'Any submission action' },
@@ -47,13 +47,7 @@ export default async function AdminAuditPage({ searchParams }: { searchParams: P
           </select>
         </label>
         <div className="grid grid-cols-[auto_minmax(0,1fr)] gap-2">
-          <label className="space-y-1">
-            <span className="block font-medium">On</span>
-            <select name="targetType" defaultValue={query.targetType ?? ''} className={input}>
-              <option value="">anything</option>
-              {Object.entries(TARGET_TYPE_LABELS).map(([k, v]) => <option key={k} value={k}>{v}</option>)}
-            </select>
-          </label>
+          <FilterSelect name="targetType" label="On" value={query.targetType} any="anything" options={TARGET_TYPE_LABELS} />
           <label className="space-y-1">
             <span className="block font-medium">Target</span>
             <input name="target" defaultValue={query.target} placeholder="S-87, C-111 or an e-mail" className={input} />
@@ -77,10 +71,11 @@ export default async function AdminAuditPage({ searchParams }: { searchParams: P
       {view.rows.length === 0 ? (
         <p className="text-muted" data-testid="audit-empty">{filtered ? 'No event matches these filters.' : 'Nothing recorded yet.'}</p>
       ) : (
+        // On a phone each event stacks into a card; from sm up it is a table row.
         <div className="overflow-x-auto rounded-card border border-rule">
-          <table className="w-full border-collapse text-sm" data-testid="audit-table">
+          <table className="w-full border-collapse text-sm max-sm:block" data-testid="audit-table">
             <caption className="sr-only">Audit log</caption>
-            <thead className="bg-panel text-left text-xs text-muted">
+            <thead className="bg-panel text-left text-xs text-muted max-sm:sr-only">
               <tr>
                 <th scope="col" className="border-b border-rule px-2 py-1.5 font-medium">When (UTC)</th>
                 <th scope="col" className="border-b border-rule px-2 py-1.5 font-medium">Who</th>
@@ -88,19 +83,19 @@ export default async function AdminAuditPage({ searchParams }: { searchParams: P
                 <th scope="col" className="border-b border-rule px-2 py-1.5 font-medium">On</th>
               </tr>
             </thead>
-            <tbody>
+            <tbody className="max-sm:block">
               {view.rows.map((r) => (
-                <tr key={r.id} data-testid="audit-row" data-action={r.action} className="align-top">
-                  <td className="figures whitespace-nowrap border-b border-rule/60 px-2 py-1.5">{r.at.replace('T', ' ').slice(0, 16)}</td>
-                  <td className="break-words border-b border-rule/60 px-2 py-1.5">
+                <tr key={r.id} data-testid="audit-row" data-action={r.action} className="align-top max-sm:block max-sm:border-b max-sm:border-rule/60 max-sm:py-1.5">
+                  <td className={`figures whitespace-nowrap ${cell}`}>{r.at.replace('T', ' ').slice(0, 16)}</td>
+                  <td className={`break-words ${cell}`}>
                     {r.actor.href ? <Link href={r.actor.href} className="hover:text-accent hover:underline">{r.actor.text}</Link> : <span className="text-muted">{r.actor.text}</span>}
                     {' '}<Link href={hrefWith('/admin/audit', {}, { actor: r.actor.filter })} className="text-xs text-muted underline underline-offset-2" aria-label={`Only events by ${r.actor.text}`}>only theirs</Link>
                   </td>
-                  <td className="min-w-[12rem] border-b border-rule/60 px-2 py-1.5">
+                  <td className={`sm:min-w-[12rem] ${cell}`}>
                     <Link href={hrefWith('/admin/audit', {}, { action: r.action })} className="font-medium hover:text-accent hover:underline">{r.actionLabel}</Link>
                     {r.summary ? <p className="break-words text-xs text-muted">{r.summary}</p> : null}
                   </td>
-                  <td className="whitespace-nowrap border-b border-rule/60 px-2 py-1.5">
+                  <td className={`break-words sm:whitespace-nowrap ${cell}`}>
                     {r.target ? (r.target.href ? <Link href={r.target.href} className="text-accent underline underline-offset-2">{r.target.text}</Link> : r.target.text) : '—'}
                   </td>
                 </tr>

@@ -4,14 +4,12 @@ import { requirePageRole } from '@/lib/auth/actor';
 import { getUsers } from '@/lib/admin/users';
 import { usersQuerySchema } from '@/lib/schemas/admin';
 import { ACCESS_LABELS, ROLE_LABELS } from '@/lib/labels';
-import { Pager } from '@/components/admin/pager';
+import { FilterSelect, Pager, filterInput as input } from '@/components/admin/filters';
 import { AdminNav } from '../nav';
 import { UsersTable } from './users-table';
 
 export const metadata: Metadata = { title: 'Users and roles' };
 export const dynamic = 'force-dynamic';
-
-const input = 'w-full min-w-0 rounded-card border border-rule bg-panel px-2 py-1';
 
 export default async function AdminUsersPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const admin = await requirePageRole('admin', '/admin/users');
@@ -28,20 +26,8 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: P
           <span className="block font-medium">Name or e-mail</span>
           <input type="search" name="q" defaultValue={query.q} placeholder="part of a name or address" className={input} />
         </label>
-        <label className="space-y-1">
-          <span className="block font-medium">Role</span>
-          <select name="role" defaultValue={query.role ?? ''} className={input}>
-            <option value="">any role</option>
-            {Object.entries(ROLE_LABELS).map(([k, v]) => <option key={k} value={k}>{v}</option>)}
-          </select>
-        </label>
-        <label className="space-y-1">
-          <span className="block font-medium">State</span>
-          <select name="access" defaultValue={query.access ?? ''} className={input}>
-            <option value="">any state</option>
-            {Object.entries(ACCESS_LABELS).map(([k, v]) => <option key={k} value={k}>{v}</option>)}
-          </select>
-        </label>
+        <FilterSelect name="role" label="Role" value={query.role} any="any role" options={ROLE_LABELS} />
+        <FilterSelect name="access" label="State" value={query.access} any="any state" options={ACCESS_LABELS} />
         <div className="flex items-end gap-3">
           <button className="rounded-card bg-accent px-3 py-1.5 text-accent-ink">Find</button>
           {filtered ? <Link href="/admin/users" className="underline underline-offset-2">Show all</Link> : null}

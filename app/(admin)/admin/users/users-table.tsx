@@ -6,7 +6,8 @@ import { ACCESS_LABELS, ROLE_LABELS } from '@/lib/labels';
 import type { UserRowView } from '@/lib/admin/users';
 
 const th = 'border-b border-rule px-2 py-1.5 text-left text-xs font-medium text-muted';
-const td = 'border-b border-rule/60 px-2 py-1.5 align-top';
+// On a phone each user stacks into a card; from sm up it is a table row.
+const td = 'border-b border-rule/60 px-2 py-1.5 align-top max-sm:block max-sm:border-0 max-sm:py-0.5';
 
 /** The state is a badge; changing it is a button that asks first. */
 function AccessBadge({ disabled }: { disabled: boolean }) {
@@ -35,9 +36,9 @@ export function UsersTable({ rows: initial, selfId }: { rows: UserRowView[]; sel
     <div className="space-y-2">
       {message ? <p role="status" className="text-sm">{message}</p> : null}
       <div className="overflow-x-auto rounded-card border border-rule">
-        <table className="w-full border-collapse text-sm" data-testid="users-table">
+        <table className="w-full border-collapse text-sm max-sm:block" data-testid="users-table">
           <caption className="sr-only">Users</caption>
-          <thead className="bg-panel">
+          <thead className="bg-panel max-sm:sr-only">
             <tr>
               <th scope="col" className={th}>User</th>
               <th scope="col" className={th}>Role</th>
@@ -45,12 +46,12 @@ export function UsersTable({ rows: initial, selfId }: { rows: UserRowView[]; sel
               <th scope="col" className={th}>Joined</th>
             </tr>
           </thead>
-          <tbody>
+          <tbody className="max-sm:block">
             {rows.map((r) => {
               const self = r.id === selfId;
               const verb = r.disabled ? 'Enable' : 'Disable';
               return (
-                <tr key={r.id} data-testid="user-row" data-email={r.email}>
+                <tr key={r.id} data-testid="user-row" data-email={r.email} className="max-sm:block max-sm:border-b max-sm:border-rule/60 max-sm:py-1.5">
                   <td className={`${td} break-words`}>
                     <span className="font-medium">{r.name || 'unnamed'}</span>
                     <span className="block text-xs text-muted">{r.email}{r.confirmed ? '' : ' · e-mail not confirmed yet'}</span>
@@ -61,7 +62,7 @@ export function UsersTable({ rows: initial, selfId }: { rows: UserRowView[]; sel
                       {Object.entries(ROLE_LABELS).map(([k, v]) => <option key={k} value={k}>{v}</option>)}
                     </select>
                   </td>
-                  <td className={`${td} space-y-1`}>
+                  <td className={`${td} space-y-1 max-sm:flex max-sm:flex-wrap max-sm:items-start max-sm:gap-2 max-sm:space-y-0`}>
                     <AccessBadge disabled={r.disabled} />
                     {self ? (
                       <span className="block text-xs text-muted">your own account</span>
@@ -83,7 +84,7 @@ export function UsersTable({ rows: initial, selfId }: { rows: UserRowView[]; sel
                       </button>
                     )}
                   </td>
-                  <td className={`${td} figures whitespace-nowrap`}>{r.createdAt.slice(0, 10)}</td>
+                  <td className={`${td} figures whitespace-nowrap text-xs text-muted sm:text-sm sm:text-ink`}><span className="sm:hidden">joined </span>{r.createdAt.slice(0, 10)}</td>
                 </tr>
               );
             })}

@@ -26,3 +26,18 @@ export function Pager({ path, query, page, pages, total, noun }: { path: string;
     </nav>
   );
 }
+
+export const filterInput = 'w-full min-w-0 rounded-card border border-rule bg-panel px-2 py-1';
+
+/** A labelled select of a filter form: "any …" first, then the labels of the stored values. */
+export function FilterSelect({ name, label, value, any, options }: { name: string; label: string; value?: string; any: string; options: Partial<Record<string, string>> }) {
+  return (
+    <label className="space-y-1">
+      <span className="block font-medium">{label}</span>
+      <select name={name} defaultValue={value ?? ''} className={filterInput}>
+        <option value="">{any}</option>
+        {Object.entries(options).map(([k, v]) => <option key={k} value={k}>{v}</option>)}
+      </select>
+    </label>
+  );
+}
