@@ -154,7 +154,7 @@ export async function assess(
   const polarised = polarisedSet(parsed);
   checks.push(...polarised.checks);
   // one unit at several temperatures: fit dCWL/dT (lib/engine/temperature.ts)
-  const temp = temperatureSet(parsed.map((p) => ({ aoiDeg: p.aoiDeg, tempC: p.temperatureC, cwlNm: p.metrics.cwlNm })), metadata.method.coating);
+  const temp = temperatureSet(parsed.map((p) => ({ aoiDeg: p.aoiDeg, tempC: p.temperatureC, cwlNm: p.metrics.cwlNm, polarization: p.polarization })), metadata.method.coating);
   checks.push(...temp.checks);
   const level = checks.reduce<Intake['level']>((acc, c) => (LEVEL_RANK[c.level] > LEVEL_RANK[acc] ? c.level : acc), 'info');
   return { files: parsed, checks, level, nEff, nEffPolarised: polarised.value, tempCoeffNmPerC: temp.fit ? temp.fit.nmPerC : null };

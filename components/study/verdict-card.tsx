@@ -2,8 +2,8 @@
 
 import Link from 'next/link';
 import { useState } from 'react';
-import { formatDeg, formatFNumber, formatNm, formatTransmission } from '@/components/charts/format';
-import { coneRequestBody, refTempFor, tempCoeffFor } from '@/lib/study/compute';
+import { fixed, formatDeg, formatFNumber, formatNm, formatTransmission } from '@/components/charts/format';
+import { coneRequestBody, fittedNeffUncertainty, refTempFor, tempCoeffFor } from '@/lib/study/compute';
 import { COATING_NAMES, defaultTempCoeff } from '@/lib/engine/temperature';
 import type { CurveStudy, StudySettings } from '@/lib/study/types';
 import { verdictFor, type Tone } from '@/lib/study/verdict';
@@ -129,12 +129,15 @@ function ErrorBar({ study, need }: { study: CurveStudy; need: number | null }) {
   const [lo, hi] = range;
   const marks = straddledMarks(range);
   const against = need != null ? needVerdict(range, need) : null;
+  const sn = study.nEffSource === 'fitted' ? fittedNeffUncertainty(study.curve) : null;
   return (
     <p className="border-t border-rule px-4 py-2 text-xs text-muted" data-testid="verdict-range" data-low={lo} data-high={hi}>
       <span className="figures font-medium text-ink">
         {formatTransmission(lo)} – {formatTransmission(hi)}
       </span>
-      {` within ±${formatNm(u.nm)} of wavelength-scale uncertainty (${u.declared ? 'declared' : 'the default for its instrument, not declared'}).`}
+      {` within ±${formatNm(u.nm)} of wavelength-scale uncertainty (${u.declared ? 'declared' : 'the default for its instrument, not declared'})`}
+      {sn ? ` and ±${fixed(sn, 3)} in the fitted n_eff (its standard error from the set)` : ''}
+      {'.'}
       {marks.length ? (
         <span className="block font-medium text-wait" data-testid="verdict-straddle">
           The range straddles the {marks.map((m) => `${m * 100} %`).join(' and ')} mark: within this measurement&apos;s accuracy the verdict could go either way.

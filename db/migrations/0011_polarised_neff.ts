@@ -38,7 +38,7 @@ ALTER TABLE curves DROP COLUMN IF EXISTS n_eff_p;
 ALTER TABLE curves DROP COLUMN IF EXISTS n_eff_s;
 `;
 
-export default {
+const migration = {
   name: '0011_polarised_neff',
   up: async ({ sequelize }: MigrationContext) => {
     await sequelize.query(up);
@@ -47,3 +47,5 @@ export default {
     await sequelize.query(down);
   },
 };
+
+export default migration;

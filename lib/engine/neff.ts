@@ -14,6 +14,13 @@ export interface AngleCwl {
 
 export interface NeffFit {
   nEff: number;
+  /**
+   * Standard error of n_eff from the fit's scatter, or null with fewer than three curves.
+   * With s² = Σr²/(m − 2) the residual variance of λ² and S = Σ(x − x̄)²:
+   *   var b = s²/S,  var a = s²·(1/m + x̄²/S),  cov(a, b) = −x̄·s²/S,
+   * and n = sqrt(−a/b) carries them to first order (∂n/∂a = −1/(2nb), ∂n/∂b = a/(2nb²)).
+   */
+  nEffStdErr: number | null;
   cwl0Nm: number;
   rmsResidualNm: number;
   points: { aoiDeg: number; cwlNm: number; fittedNm: number; residualNm: number }[];
@@ -79,7 +86,20 @@ export function fitEffectiveIndex(measurements: AngleCwl[]): NeffFit {
     ss += residualNm * residualNm;
     return { aoiDeg: m.aoiDeg, cwlNm: m.cwlNm, fittedNm, residualNm };
   });
-  return { nEff, cwl0Nm, rmsResidualNm: Math.sqrt(ss / n), points };
+  let nEffStdErr: number | null = null;
+  if (n >= 3) {
+    let ssy = 0;
+    for (let i = 0; i < n; i++) ssy += (ys[i] - (a + b * xs[i])) ** 2;
+    const s2 = ssy / (n - 2);
+    const varB = s2 / sxx;
+    const varA = s2 * (1 / n + (mx * mx) / sxx);
+    const cov = (-mx * s2) / sxx;
+    const dA = -1 / (2 * nEff * b);
+    const dB = a / (2 * nEff * b * b);
+    const v = dA * dA * varA + dB * dB * varB + 2 * dA * dB * cov;
+    nEffStdErr = Number.isFinite(v) && v >= 0 ? Math.sqrt(v) : null;
+  }
+  return { nEff, nEffStdErr, cwl0Nm, rmsResidualNm: Math.sqrt(ss / n), points };
 }
 
 /**

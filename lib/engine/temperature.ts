@@ -82,21 +82,24 @@ export interface TempSetResult {
 }
 
 /**
- * dCWL/dT from the files of one submission: the files measured at one AOI and at
- * two or more temperatures (the largest such group), compared with the
- * coating's default range when the coating is declared.
+ * dCWL/dT from the files of one submission: the files measured at one AOI, in
+ * one polarisation, and at two or more temperatures (the largest such group),
+ * compared with the coating's default range when the coating is declared. Off
+ * normal incidence s and p light sit apart, so they are never mixed in one group.
  */
-export function temperatureSet(files: { aoiDeg: number; tempC?: number; cwlNm: number | null }[], coating?: Coating): TempSetResult {
-  const byAoi = new Map<number, { tempC: number; cwlNm: number }[]>();
+export function temperatureSet(files: { aoiDeg: number; tempC?: number; cwlNm: number | null; polarization?: string }[], coating?: Coating): TempSetResult {
+  const byAoi = new Map<string, { tempC: number; cwlNm: number }[]>();
   for (const f of files) {
     if (f.tempC === undefined || f.cwlNm === null) continue;
-    const list = byAoi.get(f.aoiDeg) ?? [];
+    const key = `${f.aoiDeg}|${f.aoiDeg > 0 ? (f.polarization ?? 'unpolarized') : ''}`;
+    const list = byAoi.get(key) ?? [];
     list.push({ tempC: f.tempC, cwlNm: f.cwlNm });
-    byAoi.set(f.aoiDeg, list);
+    byAoi.set(key, list);
   }
   const groups = [...byAoi.entries()].filter(([, l]) => new Set(l.map((m) => m.tempC)).size >= 2).sort((a, b) => b[1].length - a[1].length);
   if (groups.length === 0) return { fit: null, checks: [] };
-  const [aoi, list] = groups[0];
+  const [key, list] = groups[0];
+  const aoi = Number(key.split('|')[0]);
   const fit = fitTempCoeff(list);
   const temps = list.map((m) => m.tempC);
   const text = `dCWL/dT ${fit.nmPerC.toFixed(4)} nm/°C fitted from ${list.length} curves at ${aoi}° AOI between ${Math.min(...temps)} and ${Math.max(...temps)} °C (RMS residual ${fit.rmsResidualNm.toFixed(3)} nm).`;

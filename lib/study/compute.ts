@@ -48,6 +48,20 @@ export function nEffPolarisedFor(curve: StudyCurve, s: StudySettings): { s: numb
   return ns >= 1 && ns <= 4 && np >= 1 && np <= 4 ? { s: ns, p: np } : null;
 }
 
+/**
+ * The standard error of a fitted n_eff, from the curve's own set (three or more
+ * angles; lib/engine/neff.ts), for the error bars; null when it cannot be said.
+ */
+export function fittedNeffUncertainty(curve: StudyCurve): number | null {
+  if (!curve.set || curve.set.length < 3) return null;
+  try {
+    const se = fitEffectiveIndex(curve.set.map((p) => ({ aoiDeg: p.aoiDeg, cwlNm: p.cwlNm }))).nEffStdErr;
+    return se != null && se > 0 ? Math.min(1, se) : null;
+  } catch {
+    return null;
+  }
+}
+
 export function refTempFor(curve: StudyCurve, s: StudySettings): { value: number; source: 'typed' | 'measured' | 'default' } {
   if (s.refTempC != null) return { value: s.refTempC, source: 'typed' };
   if (curve.tempC != null) return { value: curve.tempC, source: 'measured' };
@@ -80,6 +94,8 @@ export function coneRequestBody(curve: StudyCurve, s: StudySettings, fieldAngleD
     ...(s.optic.mapping !== 'tangent' ? { mapping: s.optic.mapping } : {}),
   };
   body.nEff = nEffFor(curve, s).value;
+  const sn = nEffFor(curve, s).source === 'fitted' ? fittedNeffUncertainty(curve) : null;
+  if (sn) body.nEffUncertainty = sn;
   const sp = nEffPolarisedFor(curve, s);
   if (sp) body.nEffPolarised = sp;
   if (s.preShiftNm !== 0) body.preShiftNm = s.preShiftNm;

@@ -34,8 +34,8 @@ describe('a set measured in s and p light', () => {
     expect(sp.map((c) => c.message.slice(0, 8))).toEqual(['s light:', 'p light:']);
     expect(sp.every((c) => c.level === 'info')).toBe(true);
 
-    const rows = await query<{ id: number; s: number; p: number; pol: string; t: string }>(
-      `SELECT id, n_eff_s AS s, n_eff_p AS p, method->>'polarization' AS pol, method->>'temperatureC' AS t FROM curves WHERE id IN (:ids) ORDER BY id`,
+    const rows = await query<{ id: number; s: number; p: number; pol: string; t: string; k: number | null }>(
+      `SELECT id, n_eff_s AS s, n_eff_p AS p, method->>'polarization' AS pol, method->>'temperatureC' AS t, temp_coeff_nm_per_c AS k FROM curves WHERE id IN (:ids) ORDER BY id`,
       { ids: body.curveIds },
     );
     expect(rows).toHaveLength(5);
@@ -46,6 +46,8 @@ describe('a set measured in s and p light', () => {
     }
     expect(rows.map((r) => r.pol)).toEqual(takes.map((t) => t.polarization));
     expect(rows.map((r) => Number(r.t))).toEqual([21, 21.5, 22, 22.5, 23]);
+    // s and p at one angle, half a degree apart, are not a temperature series
+    expect(rows.every((r) => r.k === null)).toBe(true);
 
     // the curve's JSON and its page say so
     const detail = await json<{ derived: { nEffPolarised: { s: number; p: number } | null } }>(await contributor.fetch(`/api/curves/${rows[1].id}`));

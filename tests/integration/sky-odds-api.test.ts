@@ -70,7 +70,9 @@ describe('POST /api/model/cone with sky, z and doublets', () => {
 describe('GET /api/labels/odds', () => {
   it('counts the units that keep the line and fits a spread; the count matches the cone model run on each unit', async () => {
     const [lab] = await query<{ label: string; n: string }>(
-      `SELECT label, count(*) AS n FROM curves WHERE status = 'verified' AND aoi_deg = 0 AND 'Ha' = ANY(lines) GROUP BY label HAVING count(*) >= 3 ORDER BY count(*) DESC, label LIMIT 1`,
+      // a unit is a curve outside a set, or one set (a set at several temperatures counts once: lib/catalogue/units.ts)
+      `SELECT label, count(DISTINCT coalesce(set_key, id::text)) AS n FROM curves WHERE status = 'verified' AND aoi_deg = 0 AND 'Ha' = ANY(lines)
+       GROUP BY label HAVING count(DISTINCT coalesce(set_key, id::text)) >= 3 ORDER BY count(DISTINCT coalesce(set_key, id::text)) DESC, label LIMIT 1`,
     );
     expect(lab, 'the demo world needs a label with three Hα units').toBeTruthy();
     const qs = new URLSearchParams({ label: lab.label, fNumber: '2.5', obstruction: '0.36', minThroughput: '0.6', line: 'Ha' });
@@ -83,7 +85,11 @@ describe('GET /api/labels/odds', () => {
     expect(body.distribution).toMatch(/normal/);
     expect(body.sentence).toMatch(new RegExp(`^${body.meeting} of ${body.units} measured units; `));
     const units = await query<{ w: number[]; t: number[]; n_eff: number | null; cwl_nm: number }>(
-      `SELECT wavelength_nm AS w, transmission AS t, n_eff, cwl_nm FROM curves WHERE status = 'verified' AND aoi_deg = 0 AND label = :label ORDER BY id`,
+      // one curve per unit: of a set, the one measured nearest 20 °C, then the lowest id
+      `SELECT w, t, n_eff, cwl_nm FROM (
+         SELECT DISTINCT ON (coalesce(set_key, id::text)) id, wavelength_nm AS w, transmission AS t, n_eff, cwl_nm FROM curves
+         WHERE status = 'verified' AND aoi_deg = 0 AND label = :label
+         ORDER BY coalesce(set_key, id::text), abs(coalesce((method->>'temperatureC')::float8, 20) - 20), id) u ORDER BY id`,
       { label: lab.label },
     );
     const meeting = units.filter((u) => runConeModel({ points: { wavelengthNm: u.w, transmission: u.t }, optic, nEff: u.n_eff ?? 2, lines: ['Ha'] }).lines[0].throughput >= 0.6).length;

@@ -39,4 +39,17 @@ describe('temperature coefficient', () => {
     // a multi-angle set at one temperature has no temperature fit
     expect(temperatureSet([0, 10, 20].map((a) => ({ aoiDeg: a, tempC: 20, cwlNm: 656 - a * 0.1 })), 'hard').fit).toBeNull();
   });
+
+  it('never reads the s/p split of a polarised set as a temperature drift', () => {
+    // s and p at 10° sit 0.07 nm apart (docs/model.md §Polarised sets), measured half a degree apart
+    const sp = [
+      { aoiDeg: 0, tempC: 21, cwlNm: 656.3, polarization: 'unpolarized' },
+      { aoiDeg: 10, tempC: 21.5, cwlNm: 653.6, polarization: 's' },
+      { aoiDeg: 10, tempC: 22, cwlNm: 653.53, polarization: 'p' },
+    ];
+    expect(temperatureSet(sp, 'hard').fit).toBeNull();
+    // the same light at two temperatures still fits
+    const warm = temperatureSet([...sp, { aoiDeg: 10, tempC: 31.5, cwlNm: 653.635, polarization: 's' }], 'hard');
+    expect(warm.fit!.nmPerC).toBeCloseTo(0.0035, 9);
+  });
 });

@@ -244,3 +244,22 @@ describe('a polarised set in the study (docs/model.md §Polarised sets)', () => 
     expect(st.onAxis.lines[0].throughput).toBeCloseTo(0.5 * (s + p), 9);
   });
 });
+
+describe('the fitted n_eff’s own uncertainty in the error bars', () => {
+  it('a curve of a set of three or more angles sends its standard error, which widens the range', () => {
+    // CWLs of n_eff 1.9 with a few hundredths of a nm of scatter (closed form of docs/model.md §Angle shift)
+    const wobble = [0.03, -0.02, 0.025, -0.03, 0.01];
+    const set = [0, 4, 8, 12, 16].map((a, i) => ({ curveId: i + 1, aoiDeg: a, cwlNm: HA * Math.sqrt(1 - Math.sin((a * Math.PI) / 180) ** 2 / 1.9 ** 2) + wobble[i] }));
+    const c = { ...flatTop(HA - 1.2, 3), nEff: 1.9, set, wavelengthUncertainty: { nm: 0.05, declared: true } };
+    const s = settings({ nEff: null });
+    const body = coneRequestBody(c, s);
+    expect(body.nEffUncertainty as number).toBeGreaterThan(0.001);
+    expect(body.nEffUncertainty as number).toBeLessThan(0.1);
+    // a typed n_eff carries no fitted uncertainty; nor does a two-angle set
+    expect(coneRequestBody(c, settings({ nEff: 1.9 })).nEffUncertainty).toBeUndefined();
+    expect(coneRequestBody({ ...c, set: set.slice(0, 2) }, s).nEffUncertainty).toBeUndefined();
+    const withSn = studyCurve(c, s).onAxis.lines[0].throughputRange!;
+    const without = studyCurve({ ...c, set: null }, s).onAxis.lines[0].throughputRange!;
+    expect(withSn[1] - withSn[0]).toBeGreaterThanOrEqual(without[1] - without[0]);
+  });
+});
