@@ -30,6 +30,10 @@ export async function readSubmissionForm(req: Request): Promise<{ metadata: unkn
  */
 export async function readSubmission(req: Request, userId: string): Promise<{ metadata: unknown; files: IncomingFile[] }> {
   if (!(req.headers.get('content-type') ?? '').startsWith('application/json')) return readSubmissionForm(req);
-  const body = stagedSubmissionSchema.parse(await readJson(req));
+  const raw = await readJson(req);
+  if (!Array.isArray((raw as { uploads?: unknown } | null)?.uploads) || ((raw as { uploads: unknown[] }).uploads.length === 0)) {
+    throw new HttpError(400, 'Send multipart/form-data with "file" and "metadata" fields, or JSON {"metadata", "uploads"} naming at least one file sent through /api/uploads/presign.');
+  }
+  const body = stagedSubmissionSchema.parse(raw);
   return { metadata: body.metadata, files: await takeStagedFiles(userId, body.uploads) };
 }
