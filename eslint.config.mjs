@@ -11,8 +11,6 @@ export default [
   ...next,
   {
     files: ['app/**/*.{ts,tsx}', 'components/**/*.{ts,tsx}'],
-    // Being rewritten on their own branch (admin audit and users pages); drop this line once they read through lib/.
-    ignores: ['app/(admin)/admin/users/page.tsx', 'app/(admin)/admin/audit/page.tsx'],
     rules: { 'no-restricted-imports': ['error', { patterns: [DATABASE] }] },
   },
   {

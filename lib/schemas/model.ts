@@ -13,6 +13,11 @@ export const pointsSchema = z
 
 const nEffMessage = `nEff must be between ${L.nEff[0].toFixed(1)} and ${L.nEff[1].toFixed(1)}`;
 export const nEffSchema = z.number({ error: 'nEff is required (typical 1.5–2.3)' }).min(L.nEff[0], nEffMessage).max(L.nEff[1], nEffMessage);
+/** The s or p effective index of a polarised set, within the same limits, named in its message. */
+const polarisedNEff = (pol: 's' | 'p') => {
+  const message = `nEffPolarised.${pol} must be between ${L.nEff[0].toFixed(1)} and ${L.nEff[1].toFixed(1)}`;
+  return z.number({ error: `nEffPolarised.${pol} must be a number` }).min(L.nEff[0], message).max(L.nEff[1], message);
+};
 
 export const opticSchema = z.object({
   fNumber: z.number({ error: 'optic.fNumber must be a number' }).min(L.fNumber[0], `f-number must be at least ${L.fNumber[0]}`).max(L.fNumber[1], `f-number must be at most ${L.fNumber[1]}`),
@@ -45,7 +50,7 @@ export const coneRequestSchema = z
     optic: opticSchema,
     nEff: nEffSchema,
     // a set measured in polarised light: the cone averages s and p with their own indices (docs/model.md §Polarised sets)
-    nEffPolarised: z.object({ s: nEffSchema, p: nEffSchema }).strict().optional(),
+    nEffPolarised: z.object({ s: polarisedNEff('s'), p: polarisedNEff('p') }).strict().optional(),
     measuredAoiDeg: z.number().min(L.measuredAoiDeg[0]).max(L.measuredAoiDeg[1]).optional(),
     preShiftNm: z.number().min(L.preShiftNm[0]).max(L.preShiftNm[1]).optional(),
     tempCoeffNmPerC: z.number().min(L.tempCoeffNmPerC[0]).max(L.tempCoeffNmPerC[1]).optional(),

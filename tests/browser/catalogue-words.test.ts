@@ -1,18 +1,11 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launch, screenshot } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserForFile, screenshot } from '../support/browser';
 import { BASE } from '../support/http';
 import { count } from '../support/db';
-import { closeSequelize } from '@/db/connection';
+import { unitLeadSql } from '@/lib/catalogue/units';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-  await closeSequelize();
-});
+const browser = browserForFile();
 
 /** Waits until the page shows the answer to the address now in the bar. */
 async function settled(page: Page, urlPart: RegExp) {
@@ -24,12 +17,13 @@ async function noOverflow(page: Page, width: number) {
   expect(await page.evaluate(() => document.documentElement.scrollWidth), page.url()).toBeLessThanOrEqual(width);
 }
 
-const verified = (where: string) => count('curves', `status = 'verified' AND ${where}`);
+// the catalogue lists one row per unit (a set's lead curve, lib/catalogue/units.ts), so counts are of leads
+const verified = (where: string) => count('curves', `status = 'verified' AND ${where} AND ${unitLeadSql('curves')}`);
 
 for (const width of [1440, 390]) {
   describe(`the catalogue reads what people type (${width} px)`, () => {
     it('words with numbers become removable chips; number fields take f/2, 80 % and 40, and say at the field what they cannot read', async () => {
-      const context = await browser.newContext({ viewport: { width, height: 900 } });
+      const context = await browser().newContext({ viewport: { width, height: 900 } });
       const page = await context.newPage();
       const errors: string[] = [];
       page.on('pageerror', (e) => errors.push(e.message));
@@ -39,7 +33,7 @@ for (const width of [1440, 390]) {
       await page.getByRole('button', { name: 'Search', exact: true }).click();
       await settled(page, /q=H-alpha/);
       const expected = await verified(`'Ha' = ANY(lines) AND fwhm_nm BETWEEN 4 AND 6`);
-      await expect.poll(() => page.getByTestId('result-count').textContent()).toContain(`${expected} curve`);
+      await expect.poll(() => page.getByTestId('result-count').textContent()).toContain(`${expected} unit`);
       await expect.poll(() => page.getByTestId('understood-line').textContent()).toContain('Hα');
       expect(await page.getByTestId('understood-width').textContent()).toContain('FWHM 4–6 nm');
       await noOverflow(page, width);
@@ -48,7 +42,7 @@ for (const width of [1440, 390]) {
       // removing the width chip takes "5 nm" out of the words
       await page.getByRole('button', { name: 'Remove FWHM 4–6 nm' }).click();
       await settled(page, /q=H-alpha(&|$)/);
-      await expect.poll(() => page.getByTestId('result-count').textContent()).toContain(`${await verified(`'Ha' = ANY(lines)`)} curve`);
+      await expect.poll(() => page.getByTestId('result-count').textContent()).toContain(`${await verified(`'Ha' = ANY(lines)`)} unit`);
 
       // the filter fields: open them on a phone
       if (width < 1024) await page.getByRole('button', { name: /^Filters/ }).click();
@@ -82,7 +76,7 @@ for (const width of [1440, 390]) {
     });
 
     it('FWHM ranges tick together; an empty search offers the nearest answers with counts that hold', async () => {
-      const context = await browser.newContext({ viewport: { width, height: 900 } });
+      const context = await browser().newContext({ viewport: { width, height: 900 } });
       const page = await context.newPage();
       await page.goto(`${BASE}/curves`);
       if (width < 1024) await page.getByRole('button', { name: /^Filters/ }).click();
@@ -93,7 +87,7 @@ for (const width of [1440, 390]) {
       await settled(page, /fwhmBucket=2-3&fwhmBucket=3-4/);
       await expect.poll(() => page.getByTestId('fwhm-bucket-2-3').locator('input').isChecked()).toBe(true);
       expect(await page.getByTestId('fwhm-bucket-3-4').locator('input').isChecked()).toBe(true);
-      await expect.poll(() => page.getByTestId('result-count').textContent()).toContain(`${await verified('fwhm_nm >= 2 AND fwhm_nm < 4')} curve`);
+      await expect.poll(() => page.getByTestId('result-count').textContent()).toContain(`${await verified('fwhm_nm >= 2 AND fwhm_nm < 4')} unit`);
       await noOverflow(page, width);
 
       await page.goto(`${BASE}/curves?line=Ha&fNumber=2&obstruction=0.36&minThroughput=0.99`);
@@ -106,7 +100,7 @@ for (const width of [1440, 390]) {
       await screenshot(page, `catalogue-nearest-${width}`);
       await empty.getByRole('link', { name: /show those/ }).click();
       await settled(page, /minThroughput=0\.\d+/);
-      await expect.poll(() => page.getByTestId('result-count').textContent()).toContain(`${told} curve`);
+      await expect.poll(() => page.getByTestId('result-count').textContent()).toContain(`${told} unit`);
       await context.close();
     });
   });

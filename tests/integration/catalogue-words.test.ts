@@ -6,6 +6,7 @@ import { closeSequelize, getSequelize } from '@/db/connection';
 import { GRID_ERROR } from '@/lib/catalogue/grid-accuracy';
 import type { SearchResult } from '@/lib/catalogue/search';
 import { forgetCounts } from '@/lib/catalogue/count-cache';
+import { unitLeadSql } from '@/lib/catalogue/units';
 
 afterAll(() => closeSequelize());
 
@@ -23,7 +24,8 @@ async function refused(qs: string): Promise<{ error: string; details: { field?: 
   return json(res);
 }
 
-const verified = (where: string) => count('curves', `status = 'verified' AND ${where}`);
+// the catalogue lists one row per unit (a set's lead curve, lib/catalogue/units.ts), so counts are of leads
+const verified = (where: string) => count('curves', `status = 'verified' AND ${where} AND ${unitLeadSql('curves')}`);
 
 describe('words with numbers (GET /api/curves?q=…)', () => {
   it('"H-alpha 5 nm" is the line and a width within ±20 %, and finds exactly those curves', async () => {
