@@ -158,7 +158,7 @@ describe('the study page respects who may see what', () => {
     const [hidden] = await query<{ id: number; contributor_id: string }>(`SELECT id, contributor_id FROM curves WHERE status = 'submitted' ORDER BY id LIMIT 1`);
     const { html, verdicts } = await page(anonymous(), `curve=${hidden.id}`);
     expect(verdicts).toHaveLength(0);
-    expect(html.replace(/<!-- -->/g, '')).toContain(`#${hidden.id}: not in the catalogue, or not visible to you.`);
+    expect(html.replace(/<!-- -->/g, '')).toContain(`C-${hidden.id}: not in the catalogue, or not visible to you.`);
     const [{ email }] = await query<{ email: string }>('SELECT email FROM users WHERE id = :id', { id: hidden.contributor_id });
     const owner = await signIn(email);
     expect((await page(owner, `curve=${hidden.id}`)).verdicts).toHaveLength(1);
