@@ -313,8 +313,16 @@ describe('one row per unit, its CWL at normal incidence', () => {
     );
     for (const qs of ['pageSize=100', 'fNumber=3&pageSize=100']) {
       const p = parseSearchParams(new URLSearchParams(qs));
-      for (const r of [await searchCurves(null, p, { memory: false }), ...(qs.includes('fNumber') ? [await searchCurves(null, p)] : [])]) {
+      // every page, so each set's lead is met wherever the order puts it
+      const allPages = async (memory: boolean) => {
+        const first = await searchCurves(null, p, { memory });
+        const items = [...first.items];
+        for (let page = 2; (page - 1) * 100 < first.total; page++) items.push(...(await searchCurves(null, { ...p, page }, { memory })).items);
+        return { ...first, items };
+      };
+      for (const r of [await allPages(false), ...(qs.includes('fNumber') ? [await allPages(true)] : [])]) {
         expect(r.total, qs).toBe(Number(units));
+        expect(r.items.length, qs).toBe(Number(units));
         const ids = r.items.map((i) => i.id);
         for (const set of sets) {
           // the lead only, carrying the whole set
