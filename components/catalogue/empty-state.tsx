@@ -13,7 +13,7 @@ const pct = (v: number) => `${Number((v * 100).toPrecision(3))} %`;
 
 /**
  * What an empty search is nearest to, as the server counted it (GET /api/curves `nearest`): the best
- * line throughput on the optic, and each relaxation with the number of curves it would find.
+ * line throughput on the optic, and each relaxation with the number of units (one row per physical unit) it would find.
  */
 export function EmptyState(props: { query: Query; data: SearchResponse | undefined; onChange: (p: Patch) => void; hrefFor: (p: Patch) => string }) {
   const nearest = props.data?.nearest;
@@ -45,7 +45,7 @@ export function EmptyState(props: { query: Query; data: SearchResponse | undefin
                   {r.label}
                 </a>
                 <span className="figures ml-2 text-xs text-muted" data-testid="relaxation-total">
-                  {r.total.toLocaleString('en-US')} curve{r.total === 1 ? '' : 's'}
+                  {r.total.toLocaleString('en-US')} unit{r.total === 1 ? '' : 's'}
                 </span>
               </li>
             ))}
