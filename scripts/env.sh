@@ -73,7 +73,8 @@ start_cluster() {
   else
     log "starting PostgreSQL on 127.0.0.1:$port"
     pg_as_owner "$PGBIN/pg_ctl" -D "$dir" -w -t 60 -l "$dir/server.log" \
-      -o "-p $port -c listen_addresses=127.0.0.1 -k $dir -c shared_buffers=256MB -c max_connections=100" start >/dev/null
+      -o "-p $port -c listen_addresses=127.0.0.1 -k $dir -c shared_buffers=256MB -c max_connections=100" start >/dev/null \
+      || { log "PostgreSQL did not start on port $port; its log says:"; tail -n 15 "$dir/server.log" >&2; return 1; }
     STARTED_CLUSTER="$dir"
   fi
 }

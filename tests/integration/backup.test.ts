@@ -1,4 +1,5 @@
 import { execFile } from 'node:child_process';
+import net from 'node:net';
 import { createHash, randomUUID } from 'node:crypto';
 import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
@@ -12,7 +13,18 @@ import { closeSequelize } from '@/db/connection';
 // comparison of every table's row count and every verified curve's points and raw file.
 const run = promisify(execFile);
 const root = path.resolve(import.meta.dirname, '../..');
-const restorePort = String(Number(process.env.PGPORT ?? 54339) + 31);
+// A port free at the moment of each restore, asked of the system: a fixed one inside the ephemeral range
+// (32768–60999 here) can be held by one of the suite's own outgoing connections when the cluster starts.
+function freePort(): Promise<string> {
+  return new Promise((resolve, reject) => {
+    const probe = net.createServer();
+    probe.once('error', reject);
+    probe.listen(0, '127.0.0.1', () => {
+      const { port } = probe.address() as net.AddressInfo;
+      probe.close(() => resolve(String(port)));
+    });
+  });
+}
 const work: string[] = [];
 
 afterAll(async () => {
@@ -58,7 +70,7 @@ describe('scripts/backup.sh and scripts/restore.sh', () => {
     expect(createHash('sha256').update(bytes).digest('hex')).toBe(first.slice('raw/'.length));
 
     const data = clusterDir();
-    const restored = await run('bash', [path.join(root, 'scripts/restore.sh'), backup, '--data', data, '--port', restorePort, '--bucket', freshBucket(), '--stop'], { cwd: root, env: process.env, timeout: 180_000 });
+    const restored = await run('bash', [path.join(root, 'scripts/restore.sh'), backup, '--data', data, '--port', await freePort(), '--bucket', freshBucket(), '--stop'], { cwd: root, env: process.env, timeout: 180_000 });
     expect(restored.stdout).toMatch(/every count and checksum equal/);
     expect(restored.stdout).toMatch(new RegExp(`file store: ${objects.length} raw objects put into bucket bandcone-restore-[0-9a-f]+ \\(0 already there\\), 0 rows without their bytes`));
   }, 300_000);
@@ -69,7 +81,7 @@ describe('scripts/backup.sh and scripts/restore.sh', () => {
     const [{ sha256 }] = await query<{ sha256: string }>('SELECT sha256 FROM submission_files WHERE content IS NULL ORDER BY id LIMIT 1');
     await rm(path.join(backup, 'raw', sha256));
     const data = clusterDir();
-    const outcome = await run('bash', [path.join(root, 'scripts/restore.sh'), backup, '--data', data, '--port', restorePort, '--bucket', freshBucket(), '--stop'], { cwd: root, env: process.env, timeout: 180_000 })
+    const outcome = await run('bash', [path.join(root, 'scripts/restore.sh'), backup, '--data', data, '--port', await freePort(), '--bucket', freshBucket(), '--stop'], { cwd: root, env: process.env, timeout: 180_000 })
       .then(() => 'passed', (err: { stdout?: string; stderr?: string }) => `${err.stdout ?? ''}${err.stderr ?? ''}`);
     expect(outcome).toMatch(/is missing from bucket/);
     expect(outcome).toMatch(/the restored file store does NOT match/);
@@ -83,7 +95,7 @@ describe('scripts/backup.sh and scripts/restore.sh', () => {
     const text = await readFile(file, 'utf8');
     await writeFile(file, text.replace(/^(rows:public\.curves\|)(\d+)$/m, (_, k: string, v: string) => `${k}${Number(v) + 1}`));
     const data = clusterDir();
-    const outcome = await run('bash', [path.join(root, 'scripts/restore.sh'), backup, '--data', data, '--port', restorePort, '--stop'], { cwd: root, env: process.env, timeout: 180_000 })
+    const outcome = await run('bash', [path.join(root, 'scripts/restore.sh'), backup, '--data', data, '--port', await freePort(), '--stop'], { cwd: root, env: process.env, timeout: 180_000 })
       .then(() => 'passed', (err: { stdout?: string }) => err.stdout ?? 'failed');
     expect(outcome).toMatch(/does NOT match/);
   }, 300_000);
