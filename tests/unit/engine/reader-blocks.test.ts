@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { readCurveText } from '@/lib/engine/reader';
 import { CurveReadError, EngineInputError } from '@/lib/engine/errors';
 import { readerOptionsSchema } from '@/lib/schemas/model';
+import { refusal } from '../../support/reader';
 
 // Lab exports end with a footer ("End of data", a summary block, a checksum)
 // and sometimes hold several scans. The data is the longest run of rows of the
@@ -13,15 +14,6 @@ const W = [650, 652, 654, 656, 658];
 const T = [0.1, 0.5, 0.9, 0.5, 0.1];
 const rows = (ws = W, ts = T, sep = ',') => ws.map((w, i) => `${w}${sep}${ts[i]}`);
 
-function refusal(input: string, options = {}): CurveReadError {
-  try {
-    readCurveText(input, options);
-  } catch (e) {
-    if (e instanceof CurveReadError) return e;
-    throw e;
-  }
-  throw new Error('expected the file to be refused');
-}
 
 describe('a footer falls away', () => {
   it('"End of data", a summary block and a checksum line', () => {

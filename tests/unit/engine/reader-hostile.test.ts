@@ -3,20 +3,12 @@ import fc from 'fast-check';
 import { MAX_COLUMNS, MAX_LINES, MAX_NUMBER_CHARS, readCurveText, scanNumber } from '@/lib/engine/reader';
 import { CurveReadError, EngineInputError } from '@/lib/engine/errors';
 import { readerOptionsSchema } from '@/lib/schemas/model';
+import { refusal } from '../../support/reader';
 
 // Hostile input is normal input: each limit of the reader, and its answers on
 // long fields, many columns and long digit runs. The oracle for numbers is
 // JavaScript's own Number() (ECMA-262 StringToNumber), a general-purpose parser.
 
-function refusal(input: string | Uint8Array, options = {}): CurveReadError {
-  try {
-    readCurveText(input, options);
-  } catch (e) {
-    if (e instanceof CurveReadError) return e;
-    throw e;
-  }
-  throw new Error('expected the file to be refused');
-}
 
 const ROWS = ['650,0.1', '652,0.5', '654,0.9', '656,0.5', '658,0.1'];
 

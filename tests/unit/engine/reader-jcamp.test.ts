@@ -3,6 +3,7 @@ import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { readCurveText } from '@/lib/engine/reader';
 import { CurveReadError } from '@/lib/engine/errors';
+import { refusal } from '../../support/reader';
 
 // JCAMP-DX fixtures written by hand from the IUPAC format (McDonald & Wilks 1988,
 // Appl. Spectrosc. 42:151): labelled records "##LABEL= value", X and Y scaled by
@@ -17,15 +18,6 @@ import { CurveReadError } from '@/lib/engine/errors';
 const dir = path.join(import.meta.dirname, '..', '..', 'fixtures', 'jcamp');
 const fixture = (name: string) => readFileSync(path.join(dir, name));
 
-function refusal(input: string, options = {}): CurveReadError {
-  try {
-    readCurveText(input, options);
-  } catch (e) {
-    if (e instanceof CurveReadError) return e;
-    throw e;
-  }
-  throw new Error('expected the file to be refused');
-}
 
 describe('JCAMP-DX', () => {
   it('uncompressed (X++(Y..Y)) with X and Y factors', () => {

@@ -3,6 +3,7 @@ import { readCurveText } from '@/lib/engine/reader';
 import { angleFromHeader } from '@/lib/engine/reader/columns';
 import { CurveReadError } from '@/lib/engine/errors';
 import { angleScale } from '@/lib/engine/cone';
+import { refusal } from '../../support/reader';
 
 // Scans of one filter at several angles exported side by side, one pair of
 // (wavelength, transmission) columns per angle (common practice of instrument
@@ -27,15 +28,6 @@ function sideBySide(lengths: number[], header: string[] | null) {
   return { text: [...(header ? [header.join(',')] : []), ...rows].join('\n'), scans };
 }
 
-function refusal(input: string, options = {}): CurveReadError {
-  try {
-    readCurveText(input, options);
-  } catch (e) {
-    if (e instanceof CurveReadError) return e;
-    throw e;
-  }
-  throw new Error('expected the file to be refused');
-}
 
 describe('column pairs side by side', () => {
   const header = ['Wavelength 0° (nm)', 'T 0° (%)', 'Wavelength 8° (nm)', 'T 8° (%)', 'Wavelength 16° (nm)', 'T 16° (%)'].map((h) => h.replace(' (%)', ''));

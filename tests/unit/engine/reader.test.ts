@@ -2,19 +2,11 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { MAX_FILE_BYTES, MAX_ROWS, readCurveText } from '@/lib/engine/reader';
 import { CurveReadError } from '@/lib/engine/errors';
+import { refusal } from '../../support/reader';
 
 const W = [650, 652, 654, 656, 658];
 const T = [0.1, 0.5, 0.9, 0.5, 0.1];
 
-function refusal(input: string | Uint8Array, options = {}): CurveReadError {
-  try {
-    readCurveText(input, options);
-  } catch (e) {
-    if (e instanceof CurveReadError) return e;
-    throw e;
-  }
-  throw new Error('expected the file to be refused');
-}
 
 describe('layouts the reader accepts', () => {
   const cases: [string, string, Partial<Record<string, unknown>>][] = [
