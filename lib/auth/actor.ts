@@ -1,10 +1,12 @@
 import { getServerSession } from 'next-auth';
+import { headers } from 'next/headers';
 import { redirect } from 'next/navigation';
 import { db } from '@/db/models';
 import type { Role } from '@/db/models/user';
 import { authOptions } from './options';
 import { sha256Hex } from './tokens';
 import { forbidden, unauthorised } from '@/lib/http/errors';
+import { carriesSessionCookie } from '@/lib/http/request-guard';
 
 export type Actor = { id: string; email: string; name: string | null; role: Role; via: 'session' | 'token' };
 
@@ -26,6 +28,13 @@ async function actorFromBearer(header: string): Promise<Actor | null> {
   return { id: user.id, email: user.email, name: user.name, role: user.role, via: 'token' };
 }
 
+// Without next-auth's session cookie there is no session to read: a signed-out visitor (most of
+// them) skips the session machinery altogether.
+async function maySignIn(req?: Request): Promise<boolean> {
+  const header = req ? req.headers.get('cookie') : (await headers()).get('cookie');
+  return carriesSessionCookie(header ?? undefined);
+}
+
 /** Who is calling: a bearer token when one is sent, else the sign-in session. */
 export async function currentActor(req?: Request): Promise<Actor | null> {
   const header = req?.headers.get('authorization');
@@ -34,6 +43,7 @@ export async function currentActor(req?: Request): Promise<Actor | null> {
     if (!actor) throw unauthorised('That API token is not valid or has been revoked.');
     return actor;
   }
+  if (!(await maySignIn(req))) return null;
   const session = await getServerSession(authOptions());
   const u = session?.user;
   if (!u?.id || !u.role) return null;

@@ -1,4 +1,4 @@
-import { QueryTypes } from 'sequelize';
+import { literal, QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
 import type { Actor } from '@/lib/auth/actor';
 import { readableCurvesWhere } from '@/lib/auth/policy';
@@ -14,9 +14,16 @@ export const readableWhere = readableCurvesWhere;
 export function loadReadableCurve(actor: Actor | null, id: number, withPoints = true) {
   return readCatalogue(async () => {
     const { Curve } = db();
-    const model = withPoints ? Curve.scope('withPoints') : Curve;
-    const curve = await model.findOne({ where: { id, ...readableWhere(actor) } });
+    // the samples travel in binary (binary-array.ts): as text they cost both ends more than the rest of the read
+    const binary: [ReturnType<typeof literal>, string][] = withPoints
+      ? [[literal(binaryArraySql('wavelength_nm')), 'wavelengthBinary'], [literal(binaryArraySql('transmission')), 'transmissionBinary']]
+      : [];
+    const curve = await Curve.findOne({ where: { id, ...readableWhere(actor) }, attributes: { include: binary } });
     if (!curve) throw notFound(`No curve ${id} that you can read.`);
+    if (withPoints) {
+      curve.setDataValue('wavelengthNm', readFloat8Array(curve.getDataValue('wavelengthBinary' as never)));
+      curve.setDataValue('transmission', readFloat8Array(curve.getDataValue('transmissionBinary' as never)));
+    }
     return curve;
   });
 }

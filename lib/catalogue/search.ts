@@ -20,7 +20,7 @@ import { readSearchWords, type Understood } from './read-query';
 import { nearestAnswers, type Nearest } from './nearest';
 import { and, MARK_END, MARK_START, snippetHtml, SqlParts } from './sql';
 import { sparklineOf } from './sparkline';
-import { cachedCounts } from './count-cache';
+import { cachedAnswer, cachedCounts } from './count-cache';
 import { binaryArraySql, readFloat8Array } from './binary-array';
 import { curvePointsByIds } from './points';
 import { answeredInMemory, searchInMemory, type CountGroup } from './memory-search';
@@ -378,12 +378,19 @@ export interface SearchOptions {
  */
 export function searchCurves(actor: Actor | null, p: SearchParams, options: SearchOptions = {}): Promise<SearchResult> {
   return readCatalogue(async () => {
-    const read = readSearchWords(p);
-    const result = await runSearch(actor, read.params, options);
-    const out: SearchResult = p.q ? { ...result, understood: read.understood, words: read.words } : result;
-    if (result.total === 0) out.nearest = await nearestAnswers(read, p.q, (relaxed) => runSearch(actor, relaxed, options));
-    return out;
+    if (actor) return answer(actor, p, options);
+    // a signed-out visitor's answer is the public catalogue's, the same for everyone: kept under its version
+    const version = await currentVersion();
+    return cachedAnswer(`${version}\n${options.memory ?? ''}\n${JSON.stringify(p)}`, () => answer(null, p, options));
   });
+}
+
+async function answer(actor: Actor | null, p: SearchParams, options: SearchOptions): Promise<SearchResult> {
+  const read = readSearchWords(p);
+  const result = await runSearch(actor, read.params, options);
+  const out: SearchResult = p.q ? { ...result, understood: read.understood, words: read.words } : result;
+  if (result.total === 0) out.nearest = await nearestAnswers(read, p.q, (relaxed) => runSearch(actor, relaxed, options));
+  return out;
 }
 
 async function runSearch(actor: Actor | null, p: SearchParams, options: SearchOptions): Promise<SearchResult> {
