@@ -168,9 +168,15 @@ grant_app_role() {
 
 # start_app LOGFILE — the production server (server.ts) on 127.0.0.1:$PORT, in the background.
 # It alone connects as the least-privilege app role; migrations and seeds used the owner.
+# Each serving process's heap: a young generation of 2 × BANDCONE_SEMI_SPACE_MB (32; Node's own
+# 16 promotes a page's short-lived objects too early and lengthens the slowest answers) and an old
+# generation held to BANDCONE_HEAP_MB (384; a process at the 100 000-curve library keeps about
+# 165 MB live, and without a ceiling V8 lets two processes grow past 1 GB). README § Reliability
+# has the figures; raise the ceiling for a library several times larger.
 start_app() {
   start_bg "$1" env NODE_ENV=production APP_DATABASE_URL="$APP_DATABASE_URL" DATABASE_REPLICA_URL="${REPLICA_DATABASE_URL:-}" \
-    node --import tsx server.ts -H 127.0.0.1 -p "$PORT"
+    node --max-semi-space-size="${BANDCONE_SEMI_SPACE_MB:-32}" --max-old-space-size="${BANDCONE_HEAP_MB:-384}" \
+    --import tsx server.ts -H 127.0.0.1 -p "$PORT"
 }
 
 # prepare_database NAME [fresh|if-empty] — the database, the app role, every migration, the demo

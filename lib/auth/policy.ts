@@ -161,6 +161,11 @@ export function readableCurvesWhere(actor: Actor | null): WhereOptions {
   return curveWhere(curveReadRule(actor), actor);
 }
 
+/** READ as an SQL condition on `curves` under `alias` (the lean reads of a curve's samples). */
+export function readableCurvesSql(actor: Actor | null, bind: (value: unknown, cast?: string) => string, alias = 'c'): string {
+  return curveSql(curveReadRule(actor), actor, bind, alias);
+}
+
 /** SEARCH as an SQL condition on `curves c` (the catalogue). */
 export function searchableCurvesSql(actor: Actor | null, status: StatusFilter | undefined, bind: (value: unknown, cast?: string) => string): string {
   return curveSql(curveSearchRule(actor, status), actor, bind);

@@ -109,10 +109,30 @@ export function getCurveDetailWithPoints(actor: Actor | null, id: number, origin
   });
 }
 
+/** What a downloaded file says about its curve: the curve's own row and its contributor, without the page's neighbourhood. */
+export type CurveFileDetail = Omit<CurveDetail, 'set' | 'revisions' | 'reviews' | 'unitSpread'>;
+
+/**
+ * The description and samples a download writes (CSV, the citable formats), from the curve's row
+ * and its contributor's name: two reads, where the page's detail needs seven.
+ */
+export function getCurveFileWithPoints(actor: Actor | null, id: number, origin: string): Promise<{ detail: CurveFileDetail; points: CurvePoints }> {
+  return readCatalogue(async () => {
+    const curve = await loadReadableCurve(actor, id, true);
+    const contributor = await contributorName(curve);
+    return { detail: ownDetail(curve, contributor, origin), points: { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission } };
+  });
+}
+
+async function contributorName(curve: Curve): Promise<string | null> {
+  const user = await db().User.findByPk(curve.contributorId, { attributes: ['id', 'name'] });
+  return user?.name ?? null;
+}
+
 async function detailOf(actor: Actor | null, curve: Curve, origin: string): Promise<CurveDetail> {
   const { Curve: C, User, Review } = db();
-  const [contributor, siblings, sameLabel, reviews, revisions] = await Promise.all([
-    User.findByPk(curve.contributorId, { attributes: ['id', 'name'] }),
+  const [name, siblings, sameLabel, reviews, revisions] = await Promise.all([
+    contributorName(curve),
     curve.setKey
       ? C.findAll({ where: { setKey: curve.setKey, revision: curve.revision, ...readableWhere(actor) }, attributes: ['id', 'aoiDeg', 'cwlNm', 'fwhmNm'], order: [['aoiDeg', 'ASC']] })
       : Promise.resolve([]),
@@ -123,13 +143,27 @@ async function detailOf(actor: Actor | null, curve: Curve, origin: string): Prom
       : Promise.resolve([]),
     revisionChain(actor, curve),
   ]);
-  const name = contributor?.name ?? null;
+  const spread = unitSpread(sameLabel.map((s) => ({ cwlNm: s.cwlNm, fwhmNm: s.fwhmNm })));
+  return {
+    ...ownDetail(curve, name, origin),
+    set: curve.setKey ? { key: curve.setKey, curves: siblings.map((s) => ({ id: s.id, aoiDeg: s.aoiDeg, cwlNm: s.cwlNm, fwhmNm: s.fwhmNm })) } : null,
+    revisions,
+    reviews: reviews.map((r) => ({
+      kind: r.kind,
+      note: r.body,
+      at: iso(r.createdAt)!,
+      by: (r as unknown as { author?: { name: string | null } }).author?.name ?? null,
+    })),
+    unitSpread: { ...spread, curves: sameLabel.map((s) => ({ id: s.id, cwlNm: s.cwlNm, fwhmNm: s.fwhmNm })), normalIncidenceOnly: true },
+  };
+}
+
+function ownDetail(curve: Curve, name: string | null, origin: string): CurveFileDetail {
   const lineInfo = (lid: string) => {
     const l = findLine(lid);
     return { id: lid, name: l?.name ?? lid, wavelengthNm: l?.airNm ?? NaN };
   };
   const lt = curve.lineTransmission ?? {};
-  const spread = unitSpread(sameLabel.map((s) => ({ cwlNm: s.cwlNm, fwhmNm: s.fwhmNm })));
   return {
     id: curve.id,
     title: curveTitle(curve),
@@ -168,15 +202,6 @@ async function detailOf(actor: Actor | null, curve: Curve, origin: string): Prom
     submissionId: curve.submissionId,
     verifiedAt: iso(curve.verifiedAt),
     createdAt: iso(curve.createdAt)!,
-    set: curve.setKey ? { key: curve.setKey, curves: siblings.map((s) => ({ id: s.id, aoiDeg: s.aoiDeg, cwlNm: s.cwlNm, fwhmNm: s.fwhmNm })) } : null,
-    revisions,
-    reviews: reviews.map((r) => ({
-      kind: r.kind,
-      note: r.body,
-      at: iso(r.createdAt)!,
-      by: (r as unknown as { author?: { name: string | null } }).author?.name ?? null,
-    })),
-    unitSpread: { ...spread, curves: sameLabel.map((s) => ({ id: s.id, cwlNm: s.cwlNm, fwhmNm: s.fwhmNm })), normalIncidenceOnly: true },
     citation: citationOf(curve, name, origin),
     links: {
       self: `/api/curves/${curve.id}`,
@@ -194,7 +219,7 @@ async function detailOf(actor: Actor | null, curve: Curve, origin: string): Prom
 }
 
 /** Metadata written into a downloaded file's `#` header. */
-export function csvMetadata(d: CurveDetail): Record<string, string | number | string[] | null> {
+export function csvMetadata(d: CurveFileDetail): Record<string, string | number | string[] | null> {
   return {
     curve_id: d.id,
     label: d.label,

@@ -1,7 +1,7 @@
 import { literal, QueryTypes } from 'sequelize';
 import { db } from '@/db/models';
 import type { Actor } from '@/lib/auth/actor';
-import { readableCurvesWhere } from '@/lib/auth/policy';
+import { readableCurvesSql, readableCurvesWhere } from '@/lib/auth/policy';
 import { notFound } from '@/lib/http/errors';
 import type { CurvePoints } from '@/lib/engine/types';
 import { binaryArraySql, readFloat8Array } from './binary-array';
@@ -25,6 +25,33 @@ export function loadReadableCurve(actor: Actor | null, id: number, withPoints = 
       curve.setDataValue('transmission', readFloat8Array(curve.getDataValue('transmissionBinary' as never)));
     }
     return curve;
+  });
+}
+
+/** A readable curve's samples and what the engine needs beside them. */
+export interface ReadableSamples {
+  id: number;
+  aoiDeg: number;
+  method: Record<string, unknown>;
+  points: CurvePoints;
+}
+
+/**
+ * The samples of one curve the caller may read, in one plain statement (points downloads, model
+ * calls, sky references, field maps): no model instance is built, which cost those requests more
+ * than the read itself. The READ rule is the policy's SQL form of the rule loadReadableCurve applies.
+ */
+export function loadReadableSamples(actor: Actor | null, id: number): Promise<ReadableSamples> {
+  return readCatalogue(async () => {
+    const bind: unknown[] = [id];
+    const rule = readableCurvesSql(actor, (value, cast = '') => (bind.push(value), `$${bind.length}${cast}`));
+    const [row] = await db().sequelize.query<{ id: number; aoi_deg: number; method: Record<string, unknown> | null; w: Buffer; t: Buffer }>(
+      `SELECT c.id, c.aoi_deg, c.method, ${binaryArraySql('c.wavelength_nm')} AS w, ${binaryArraySql('c.transmission')} AS t
+       FROM curves c WHERE c.id = $1 AND (${rule})`,
+      { bind, type: QueryTypes.SELECT },
+    );
+    if (!row) throw notFound(`No curve ${id} that you can read.`);
+    return { id: row.id, aoiDeg: row.aoi_deg, method: row.method ?? {}, points: { wavelengthNm: readFloat8Array(row.w), transmission: readFloat8Array(row.t) } };
   });
 }
 

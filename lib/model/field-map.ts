@@ -1,6 +1,6 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/actor';
-import { loadReadableCurve } from '@/lib/catalogue/points';
+import { loadReadableSamples } from '@/lib/catalogue/points';
 import { fieldMap, type ChiefRaySpec, type FieldMapResult } from '@/lib/engine/field-map';
 import { unprocessable } from '@/lib/http/errors';
 import { findVisibleOptic } from '@/lib/optics/store';
@@ -16,8 +16,8 @@ export async function runFieldMap(actor: Actor | null, body: FieldMapRequest): P
   let points = body.points;
   let measuredAoiDeg = body.measuredAoiDeg;
   if (body.curveId !== undefined) {
-    const curve = await loadReadableCurve(actor, body.curveId);
-    points = { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission };
+    const curve = await loadReadableSamples(actor, body.curveId);
+    points = curve.points;
     measuredAoiDeg ??= curve.aoiDeg;
   }
 

@@ -1,6 +1,6 @@
 import 'server-only';
 import { currentActor } from '@/lib/auth/actor';
-import { loadReadableCurve } from '@/lib/catalogue/points';
+import { loadReadableSamples } from '@/lib/catalogue/points';
 import type { SkyRequest } from '@/lib/engine/sky';
 import type { z } from 'zod';
 import type { skyRequestSchema } from '@/lib/schemas/model';
@@ -10,9 +10,9 @@ import { formatCurveId } from '@/lib/labels';
 export async function resolveSkyReference(req: Request, sky: z.infer<typeof skyRequestSchema>): Promise<SkyRequest> {
   const ref = sky.reference;
   if (!ref || !('curveId' in ref)) return { model: sky.model, reference: ref };
-  const curve = await loadReadableCurve(await currentActor(req), ref.curveId);
+  const curve = await loadReadableSamples(await currentActor(req), ref.curveId);
   return {
     model: sky.model,
-    reference: { points: { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission }, measuredAoiDeg: curve.aoiDeg, label: `curve ${formatCurveId(curve.id)}` },
+    reference: { points: curve.points, measuredAoiDeg: curve.aoiDeg, label: `curve ${formatCurveId(curve.id)}` },
   };
 }

@@ -4,7 +4,7 @@
  * same revision, date, contributor, lab, licence and permanent address.
  */
 
-import type { CurveDetail } from '../detail';
+import type { CurveFileDetail } from '../detail';
 
 export interface CurveRecord {
   id: number;
@@ -31,7 +31,7 @@ export interface CurveRecord {
   points: { wavelengthNm: number[]; transmission: number[] };
 }
 
-export function curveRecord(d: CurveDetail, points: { wavelengthNm: number[]; transmission: number[] }, origin: string): CurveRecord {
+export function curveRecord(d: CurveFileDetail, points: { wavelengthNm: number[]; transmission: number[] }, origin: string): CurveRecord {
   return {
     id: d.id,
     revision: d.revision,

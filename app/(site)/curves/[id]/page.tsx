@@ -29,8 +29,9 @@ async function load(raw: string) {
     const id = parseCurveId(raw);
     const h = await headers();
     const origin = publicOrigin(`${h.get('x-forwarded-proto') ?? 'http'}://${h.get('host') ?? 'localhost'}`);
-    const { detail, points } = await getCurveDetailWithPoints(actor, id, origin);
-    return { actor, detail, points };
+    // the optics a reader may pick are read alongside the curve, not after it
+    const [{ detail, points }, optics] = await Promise.all([getCurveDetailWithPoints(actor, id, origin), opticChoices(actor)]);
+    return { actor, detail, points, optics };
   } catch (err) {
     if (err instanceof HttpError && err.status === 404) notFound();
     throw err;
@@ -112,8 +113,7 @@ function methodRows(d: CurveDetail) {
 
 export default async function CurvePage({ params }: Props) {
   const { id } = await params;
-  const { actor, detail: d, points } = await load(id);
-  const optics = await opticChoices(actor);
+  const { actor, detail: d, points, optics } = await load(id);
   const spread = d.unitSpread;
   const solar = d.lines.some((l) => l.id === 'Ha');
   const nominal = d.nominal.cwlNm && d.nominal.fwhmNm ? { cwlNm: d.nominal.cwlNm, fwhmNm: d.nominal.fwhmNm } : null;

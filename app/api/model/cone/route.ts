@@ -4,7 +4,7 @@ import { POINTS_BODY_MAX } from '@/lib/http/body';
 import { coneRequestSchema } from '@/lib/schemas/model';
 import { runConeModel } from '@/lib/engine/cone-study';
 import { currentActor } from '@/lib/auth/actor';
-import { loadReadableCurve } from '@/lib/catalogue/points';
+import { loadReadableSamples } from '@/lib/catalogue/points';
 import { resolveSkyReference } from '@/lib/model/sky';
 import { wavelengthUncertaintyOf } from '@/lib/engine/quality';
 
@@ -14,8 +14,8 @@ export const POST = withErrors(async (req: Request) => {
   let measuredAoiDeg = body.measuredAoiDeg;
   let wavelengthUncertaintyNm = body.wavelengthUncertaintyNm;
   if (body.curveId !== undefined) {
-    const curve = await loadReadableCurve(await currentActor(req), body.curveId);
-    points = { wavelengthNm: curve.wavelengthNm, transmission: curve.transmission };
+    const curve = await loadReadableSamples(await currentActor(req), body.curveId);
+    points = curve.points;
     // A stored curve knows the angle it was measured at.
     measuredAoiDeg ??= curve.aoiDeg;
     // and how sure its wavelength scale is: declared, else the default for its instrument kind

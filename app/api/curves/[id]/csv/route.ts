@@ -1,6 +1,6 @@
 import { withErrors } from '@/lib/http/errors';
 import { currentActor } from '@/lib/auth/actor';
-import { csvMetadata, getCurveDetailWithPoints, parseCurveId } from '@/lib/catalogue/detail';
+import { csvMetadata, getCurveFileWithPoints, parseCurveId } from '@/lib/catalogue/detail';
 import { publicOrigin } from '@/lib/http/site';
 import { writeCurveCsv } from '@/lib/engine/csv';
 
@@ -10,7 +10,7 @@ type Ctx = { params: Promise<{ id: string }> };
 export const GET = withErrors(async (req: Request, ctx: Ctx) => {
   const id = parseCurveId((await ctx.params).id);
   const actor = await currentActor(req);
-  const { detail, points } = await getCurveDetailWithPoints(actor, id, publicOrigin(new URL(req.url).origin));
+  const { detail, points } = await getCurveFileWithPoints(actor, id, publicOrigin(new URL(req.url).origin));
   const csv = writeCurveCsv(csvMetadata(detail), points);
   return new Response(csv, {
     headers: {
