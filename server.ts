@@ -3,6 +3,7 @@
 // from, what it carries) is settled before any page or route handler runs.
 //
 //   node --import tsx server.ts [-H 127.0.0.1] [-p 3000] [--dev]
+//   node .next/bandcone-server/server.mjs [-H …] [-p …]   (the same, bundled by `npm run build`; what the scripts serve)
 //
 // PORT and HOST are read from the environment when the flags are absent. TRUSTED_PROXIES=N
 // says N reverse proxies of ours stand in front (lib/http/client-address.ts). WEB_CONCURRENCY=N
@@ -10,13 +11,13 @@
 // CPU-bound work in one JavaScript thread, so one process uses one core however many there are.
 // Each process keeps its own catalogue copy; only the first sends mail.
 import cluster from 'node:cluster';
+import { existsSync } from 'node:fs';
 import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { forwardedChain, trustedProxyCount } from './lib/http/client-address';
 import { guardRequest } from './lib/http/request-guard';
-import { databaseRecentlyLost, databaseUp, UNAVAILABLE_PAGE } from './lib/http/database-health';
-import { RETRY_AFTER_SECONDS } from './lib/http/unavailable';
+import type * as DatabaseHealth from './lib/http/database-health';
 import { DEFAULT_FITNESS_CACHE_MB } from './lib/catalogue/cache-budget';
 import { settleReadSource } from './lib/http/read-primary';
 
@@ -29,7 +30,14 @@ const dev = process.argv.includes('--dev');
 const hostname = flag('-H') ?? process.env.HOST ?? '127.0.0.1';
 const port = Number(flag('-p') ?? process.env.PORT ?? 3000);
 const trusted = trustedProxyCount();
-const dir = path.dirname(fileURLToPath(import.meta.url));
+// The project's folder: this file's, or the one above the build folder when running as the bundle.
+const here = path.dirname(fileURLToPath(import.meta.url));
+const dir = [here, path.dirname(here), path.dirname(path.dirname(here))].find((d) => existsSync(path.join(d, 'next.config.ts'))) ?? here;
+
+// The database's health and the Retry-After we send, loaded by a serving process only (main): they
+// bring pg and Sequelize, which a supervising process has no use for (about 40 MB of its memory).
+let health: typeof DatabaseHealth;
+let RETRY_AFTER_SECONDS: number;
 
 // Headers only a proxy we trust may set; from anyone else they are lies about the request.
 const PROXY_HEADERS = ['x-forwarded-host', 'x-forwarded-proto', 'x-forwarded-port', 'forwarded'];
@@ -51,7 +59,7 @@ function refuse(res: ServerResponse, status: number, error: string) {
 /** A page whose drawing failed on a lost database connection goes out as 503 with Retry-After (its body is the error page). */
 function answerLostDatabaseAs503(res: ServerResponse) {
   const fix = (status: number) => {
-    if (status !== 500 || res.headersSent || !databaseRecentlyLost()) return status;
+    if (status !== 500 || res.headersSent || !health.databaseRecentlyLost()) return status;
     res.setHeader('retry-after', String(RETRY_AFTER_SECONDS));
     return 503;
   };
@@ -69,6 +77,8 @@ function answerLostDatabaseAs503(res: ServerResponse) {
 async function main() {
   // Imported here so that a supervising process (WEB_CONCURRENCY > 1) never loads Next at all.
   const { default: next } = await import('next');
+  health = await import('./lib/http/database-health');
+  ({ RETRY_AFTER_SECONDS } = await import('./lib/http/unavailable'));
   const app = next({ dev, dir, hostname, port });
   const handle = app.getRequestHandler();
   await app.prepare();
@@ -86,12 +96,12 @@ async function main() {
   const serve = async (req: IncomingMessage, res: ServerResponse) => {
     // A page read while the database is down: a plain 503 that retries, instead of a broken page.
     const url = req.url ?? '/';
-    if ((req.method === 'GET' || req.method === 'HEAD') && !url.startsWith('/api/') && !url.startsWith('/_next/') && !(await databaseUp())) {
+    if ((req.method === 'GET' || req.method === 'HEAD') && !url.startsWith('/api/') && !url.startsWith('/_next/') && !(await health.databaseUp())) {
       res.writeHead(503, {
         'content-type': 'text/html; charset=utf-8', 'retry-after': String(RETRY_AFTER_SECONDS), 'cache-control': 'no-store',
         'content-security-policy': "default-src 'none'; style-src 'unsafe-inline'; frame-ancestors 'none'", 'x-content-type-options': 'nosniff',
       });
-      res.end(req.method === 'HEAD' ? undefined : UNAVAILABLE_PAGE);
+      res.end(req.method === 'HEAD' ? undefined : health.UNAVAILABLE_PAGE);
       return;
     }
     if (!url.startsWith('/api/') && !url.startsWith('/_next/')) answerLostDatabaseAs503(res);

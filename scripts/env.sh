@@ -133,12 +133,12 @@ wait_for_http() {
 # Rebuild only when a source file is newer than the last build.
 build_if_stale() {
   local dist="${NEXT_DIST_DIR:-.next}"
-  if [ -f "$dist/BUILD_ID" ] && [ -z "$(find app components lib db moderation seeds public next.config.ts proxy.ts instrumentation.ts tailwind.config.ts package-lock.json \
+  if [ -f "$dist/BUILD_ID" ] && [ -f "$dist/bandcone-server/server.mjs" ] && [ -z "$(find app components lib db moderation seeds public next.config.ts proxy.ts instrumentation.ts tailwind.config.ts package-lock.json server.ts scripts/build-server.mjs \
         -newer "$dist/BUILD_ID" -type f 2>/dev/null | head -n 1)" ]; then
     log "build is up to date"
   else
-    log "building the app (next build)"
-    npx next build >"$ROOT/.data/build-${dist//\//_}.log" 2>&1 || { tail -n 60 "$ROOT/.data/build-${dist//\//_}.log"; return 1; }
+    log "building the app (next build, then our server bundle)"
+    npm run build >"$ROOT/.data/build-${dist//\//_}.log" 2>&1 || { tail -n 60 "$ROOT/.data/build-${dist//\//_}.log"; return 1; }
   fi
 }
 
@@ -166,7 +166,8 @@ grant_app_role() {
   psql -h 127.0.0.1 -p "$PGPORT" -U postgres -v ON_ERROR_STOP=1 -qtA -d "$1" -c 'SELECT bandcone_grant_app()' >/dev/null
 }
 
-# start_app LOGFILE — the production server (server.ts) on 127.0.0.1:$PORT, in the background.
+# start_app LOGFILE — the production server (server.ts, bundled by build_if_stale into the build
+# folder so no TypeScript loader runs beside it) on 127.0.0.1:$PORT, in the background.
 # It alone connects as the least-privilege app role; migrations and seeds used the owner.
 # Each serving process's heap: a young generation of 2 × BANDCONE_SEMI_SPACE_MB (32; Node's own
 # 16 promotes a page's short-lived objects too early and lengthens the slowest answers) and an old
@@ -176,7 +177,7 @@ grant_app_role() {
 start_app() {
   start_bg "$1" env NODE_ENV=production APP_DATABASE_URL="$APP_DATABASE_URL" DATABASE_REPLICA_URL="${REPLICA_DATABASE_URL:-}" \
     node --max-semi-space-size="${BANDCONE_SEMI_SPACE_MB:-32}" --max-old-space-size="${BANDCONE_HEAP_MB:-384}" \
-    --import tsx server.ts -H 127.0.0.1 -p "$PORT"
+    "${NEXT_DIST_DIR:-.next}/bandcone-server/server.mjs" -H 127.0.0.1 -p "$PORT"
 }
 
 # prepare_database NAME [fresh|if-empty] — the database, the app role, every migration, the demo

@@ -9,18 +9,25 @@
  * replica may not have replayed the change yet (lib/catalogue/read-source.ts).
  */
 export const COUNT_TTL_MS = 30_000;
+/**
+ * A whole answer is kept longer: its key holds the catalogue version, so it stays true until the
+ * catalogue changes, and the time limit only lets unused answers go. Each answer's limit is drawn
+ * between three quarters of this and all of it, so answers kept in the same second do not all
+ * lapse in the same second (that made the slowest answers of a busy minute twice as slow).
+ */
+export const ANSWER_TTL_MS = 5 * 60_000;
 const SETTLE_MS = 2_000;
 let changedAt = -Infinity;
 
-type Entry = { at: number; value: Promise<unknown> };
+type Entry = { until: number; value: Promise<unknown> };
 
-/** A small LRU of promised values under version-bearing keys, `maxEntries` long. */
-function keeper(maxEntries: number) {
+/** A small LRU of promised values under version-bearing keys, `maxEntries` long, each kept up to `ttlMs` (`spread` of it drawn at random). */
+function keeper(maxEntries: number, ttlMs: number, spread = 0) {
   const entries = new Map<string, Entry>();
   const keep = <T>(key: string, compute: () => Promise<T>): Promise<T> => {
     const now = Date.now();
     const hit = entries.get(key);
-    if (hit && now - hit.at < COUNT_TTL_MS) {
+    if (hit && now < hit.until) {
       // refresh recency so the map behaves as a small LRU
       entries.delete(key);
       entries.set(key, hit);
@@ -28,7 +35,7 @@ function keeper(maxEntries: number) {
     }
     const value = compute();
     if (now - changedAt < SETTLE_MS) return value;
-    entries.set(key, { at: now, value });
+    entries.set(key, { until: now + ttlMs * (1 - spread * Math.random()), value });
     // a failure is not remembered
     value.catch(() => entries.delete(key));
     while (entries.size > maxEntries) entries.delete(entries.keys().next().value as string);
@@ -39,8 +46,8 @@ function keeper(maxEntries: number) {
 
 // A count is a few dozen small groups; an answer is a page of rows with their sparklines
 // (about 30 kB as JSON), so fewer answers are kept: 200 of them stay near 10 MB.
-const counts = keeper(500);
-const answers = keeper(200);
+const counts = keeper(500, COUNT_TTL_MS);
+const answers = keeper(200, ANSWER_TTL_MS, 0.25);
 
 export const cachedCounts = counts.keep;
 

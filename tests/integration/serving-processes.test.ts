@@ -55,7 +55,8 @@ const answers = async () => {
 
 describe('several serving processes (WEB_CONCURRENCY)', () => {
   it('serves from two processes, replaces one that dies, and stops them all on SIGTERM', async () => {
-    server = spawn(process.execPath, ['--import', 'tsx', 'server.ts', '-H', '127.0.0.1', '-p', String(port)], {
+    // the server as the scripts serve it: bundled into the build folder (scripts/build-server.mjs)
+    server = spawn(process.execPath, [path.join(process.env.NEXT_DIST_DIR ?? '.next', 'bandcone-server', 'server.mjs'), '-H', '127.0.0.1', '-p', String(port)], {
       cwd: root,
       detached: true,
       stdio: 'ignore',

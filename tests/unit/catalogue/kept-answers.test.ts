@@ -1,5 +1,5 @@
-import { describe, expect, it } from 'vitest';
-import { cachedAnswer, cachedCounts, forgetCounts, keptAnswers } from '@/lib/catalogue/count-cache';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { ANSWER_TTL_MS, cachedAnswer, cachedCounts, forgetCounts, keptAnswers } from '@/lib/catalogue/count-cache';
 
 // Signed-out visitors' answers kept under the catalogue version (lib/catalogue/count-cache.ts).
 // Each test starts past the settling window that follows a change (answers are not kept then).
@@ -7,6 +7,8 @@ async function settled() {
   forgetCounts();
   await new Promise((r) => setTimeout(r, 2_050));
 }
+
+afterEach(() => vi.useRealTimers());
 
 describe('kept answers', () => {
   it('answers the same key once, frozen, and forgets on a change', async () => {
@@ -42,6 +44,28 @@ describe('kept answers', () => {
     let again = 0;
     await cachedAnswer('v\n0', async () => ({ i: (again++, 0) }));
     expect(again).toBe(1);
+  }, 10_000);
+
+  it('lets answers lapse at staggered times between three quarters of their limit and all of it', async () => {
+    await settled();
+    vi.useFakeTimers({ toFake: ['Date'] });
+    const start = Date.now();
+    let computed = 0;
+    for (let i = 0; i < 40; i++) await cachedAnswer(`v\nlapse${i}`, async () => ({ i, n: ++computed }));
+    const stillKept = async () => {
+      const before = computed;
+      for (let i = 0; i < 40; i++) await cachedAnswer(`v\nlapse${i}`, async () => ({ i, n: ++computed }));
+      const recomputed = computed - before;
+      return 40 - recomputed;
+    };
+    vi.setSystemTime(start + ANSWER_TTL_MS * 0.74);
+    expect(await stillKept()).toBe(40);
+    // recomputed ones are kept afresh; move on from the original start again
+    vi.setSystemTime(start + ANSWER_TTL_MS * 0.875);
+    const between = await stillKept();
+    // at 7/8 of the limit some have lapsed and some not (40 draws: all on one side has odds of 2 × 2^-40)
+    expect(between).toBeGreaterThan(0);
+    expect(between).toBeLessThan(40);
   }, 10_000);
 
   it('keeps counts apart from answers', async () => {
