@@ -1,7 +1,8 @@
 // Fifty visitors on a realistic mix, each thinking about a second between requests (about
 // 50 requests a second in all), then more visitors until p95 passes 500 ms. Visitors are loops
-// of their own (Node's fetch): autocannon's fixed rate sends each second's requests in one burst,
-// which no crowd of people does.
+// of their own: autocannon's fixed rate sends each second's requests in one burst, which no crowd
+// of people does. They send through node:http on kept-alive connections, not fetch: on this one
+// machine the visitors share the server's two cores, and fetch cost them three times the CPU.
 //   npm run check:load -- [--url http://127.0.0.1:3000] [--visitors 50] [--seconds 60] [--pid <server pid>] [--no-ramp] [--fresh-searches]
 // The server keeps a signed-out visitor's search answer under the catalogue version for 30 s
 // (lib/catalogue/count-cache.ts), so the mix's repeated searches are mostly answered from memory,
@@ -10,6 +11,7 @@
 // Point the server at the 100 000-curve database first (npm run seed:scale; DEVELOPERS.md says how).
 // Targets on the 2-core machine: p95 ≤ 150 ms for pages and searches, ≤ 50 ms for the model call
 // on a stored curve, no errors, server memory ≤ 1 GB.
+import { Agent, request as httpRequest } from 'node:http';
 import { memorySampler, percentile, serverPids } from './bench-support';
 
 function arg(name: string, fallback: string): string {
@@ -57,6 +59,22 @@ const KINDS: Kind[] = [
   { name: 'CSV', share: 5, target: 150, requests: (ids) => ids.slice(80, 120).map((id) => ({ method: 'GET', path: `/api/curves/${id}/csv` })) },
 ];
 
+const agent = new Agent({ keepAlive: true, maxSockets: Infinity });
+
+/** One request through the kept-alive agent: its status, once the whole answer has arrived (10 s at most). */
+function send(path: string, method: string, headers: Record<string, string>, body?: string): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const req = httpRequest(BASE + path, { method, headers: { ...headers, 'accept-encoding': 'gzip' }, agent, timeout: 10_000 }, (res) => {
+      res.on('data', () => {});
+      res.on('end', () => resolve(res.statusCode ?? 0));
+      res.on('error', reject);
+    });
+    req.on('timeout', () => req.destroy(new Error('timed out')));
+    req.on('error', reject);
+    req.end(body);
+  });
+}
+
 type Row = { kind: Kind; requests: number; rps: number; p50: number; p95: number; p99: number; errors: number; all: number[] };
 
 /**
@@ -84,9 +102,8 @@ async function round(ids: number[], visitors: number, thinkS: number, seconds: n
       const path = FRESH && KINDS[k].search ? `${r.path}&peakMin=0.${String(seq % 1_000_000).padStart(9, '0')}` : r.path;
       const t0 = performance.now();
       try {
-        const res = await fetch(BASE + path, { method: r.method, headers: { accept: 'application/json,text/html', ...(r.headers ?? {}) }, body: r.body, signal: AbortSignal.timeout(10_000) });
-        await res.arrayBuffer();
-        if (res.status >= 400) errors[k]++;
+        const status = await send(path, r.method, { accept: 'application/json,text/html', ...(r.headers ?? {}) }, r.body);
+        if (status >= 400) errors[k]++;
       } catch {
         errors[k]++;
       }
@@ -152,6 +169,7 @@ async function main() {
     }
     console.log(`saturation: about ${saturation.toFixed(0)} requests a second before p95 passes ${SATURATION_P95_MS} ms`);
   }
+  agent.destroy();
   console.log(ok ? '\ncheck:load: every target met' : '\ncheck:load: SOME TARGETS MISSED');
   process.exitCode = ok ? 0 : 1;
 }
