@@ -4,7 +4,7 @@
 // of people does. They send through node:http on kept-alive connections, not fetch: on this one
 // machine the visitors share the server's two cores, and fetch cost them three times the CPU.
 //   npm run check:load -- [--url http://127.0.0.1:3000] [--visitors 50] [--seconds 60] [--pid <server pid>] [--no-ramp] [--fresh-searches]
-// The server keeps a signed-out visitor's search answer under the catalogue version for 30 s
+// The server keeps a signed-out visitor's search answer under the catalogue version (up to 5 min)
 // (lib/catalogue/count-cache.ts), so the mix's repeated searches are mostly answered from memory,
 // as a public library's popular searches are. --fresh-searches makes every search a new one (a
 // distinct, harmless peak threshold below 0.1 %), so each is worked out: the figure without keeping.
@@ -129,7 +129,7 @@ async function main() {
   console.log(
     FRESH
       ? `searches: every one new (--fresh-searches), so none is answered from a kept copy`
-      : `searches: ${searches}, repeated; the server keeps a signed-out visitor's answer for 30 s, so most repeats come from memory (--fresh-searches for none)`,
+      : `searches: ${searches}, repeated; the server keeps a signed-out visitor's answer under the catalogue version (up to 5 min), so most repeats come from memory (--fresh-searches for none)`,
   );
   if (!pids.length) console.log('  (server process not found: pass --pid to report its memory)');
 

@@ -171,12 +171,13 @@ grant_app_role() {
 # It alone connects as the least-privilege app role; migrations and seeds used the owner.
 # Each serving process's heap: a young generation of 2 × BANDCONE_SEMI_SPACE_MB (32; Node's own
 # 16 promotes a page's short-lived objects too early and lengthens the slowest answers) and an old
-# generation held to BANDCONE_HEAP_MB (384; a process at the 100 000-curve library keeps about
-# 165 MB live, and without a ceiling V8 lets two processes grow past 1 GB). README § Reliability
-# has the figures; raise the ceiling for a library several times larger.
+# generation held to BANDCONE_HEAP_MB (512; a process at the 100 000-curve library keeps about
+# 165 MB live; without a ceiling V8 let two processes grow past 1 GB, and at 384 a library
+# verifying a curve every 2 s spent seconds collecting). README § Reliability has the figures;
+# raise the ceiling for a library several times larger.
 start_app() {
   start_bg "$1" env NODE_ENV=production APP_DATABASE_URL="$APP_DATABASE_URL" DATABASE_REPLICA_URL="${REPLICA_DATABASE_URL:-}" \
-    node --max-semi-space-size="${BANDCONE_SEMI_SPACE_MB:-32}" --max-old-space-size="${BANDCONE_HEAP_MB:-384}" \
+    node --max-semi-space-size="${BANDCONE_SEMI_SPACE_MB:-32}" --max-old-space-size="${BANDCONE_HEAP_MB:-512}" \
     "${NEXT_DIST_DIR:-.next}/bandcone-server/server.mjs" -H 127.0.0.1 -p "$PORT"
 }
 
