@@ -60,17 +60,31 @@ const KINDS: Kind[] = [
 ];
 
 const agent = new Agent({ keepAlive: true, maxSockets: Infinity });
+/** What went wrong in the last round, by status or error code. */
+const reasons = new Map<string, number>();
+const reasonList = () => [...reasons].map(([why, n]) => `${n} × ${why}`).join(', ');
 
-/** One request through the kept-alive agent: its status, once the whole answer has arrived (10 s at most). */
-function send(path: string, method: string, headers: Record<string, string>, body?: string): Promise<number> {
+/**
+ * One request through the kept-alive agent: its status, once the whole answer has arrived (10 s at
+ * most). A kept-alive connection the server closed just as it was reused fails before any answer;
+ * that request is sent once more on a new connection, as browsers do (Node's documentation of
+ * `request.reusedSocket` gives the same advice). Nothing else is retried.
+ */
+function send(path: string, method: string, headers: Record<string, string>, body?: string, retried = false): Promise<number> {
   return new Promise((resolve, reject) => {
+    let answered = false;
     const req = httpRequest(BASE + path, { method, headers: { ...headers, 'accept-encoding': 'gzip' }, agent, timeout: 10_000 }, (res) => {
+      answered = true;
       res.on('data', () => {});
       res.on('end', () => resolve(res.statusCode ?? 0));
       res.on('error', reject);
     });
-    req.on('timeout', () => req.destroy(new Error('timed out')));
-    req.on('error', reject);
+    req.on('timeout', () => req.destroy(new Error('timed out after 10 s')));
+    req.on('error', (err: NodeJS.ErrnoException) => {
+      const stale = req.reusedSocket && !answered && (err.code === 'ECONNRESET' || err.code === 'EPIPE');
+      if (stale && !retried) send(path, method, headers, body, true).then(resolve, reject);
+      else reject(err);
+    });
     req.end(body);
   });
 }
@@ -87,6 +101,7 @@ async function round(ids: number[], visitors: number, thinkS: number, seconds: n
   const total = KINDS.reduce((a, k) => a + k.share, 0);
   const times = KINDS.map(() => [] as number[]);
   const errors = KINDS.map(() => 0);
+  reasons.clear();
   const until = Date.now() + seconds * 1000;
   let seq = 0;
   const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
@@ -103,9 +118,11 @@ async function round(ids: number[], visitors: number, thinkS: number, seconds: n
       const t0 = performance.now();
       try {
         const status = await send(path, r.method, { accept: 'application/json,text/html', ...(r.headers ?? {}) }, r.body);
-        if (status >= 400) errors[k]++;
-      } catch {
+        if (status >= 400) (errors[k]++, reasons.set(`HTTP ${status}`, (reasons.get(`HTTP ${status}`) ?? 0) + 1));
+      } catch (err) {
         errors[k]++;
+        const why = (err as NodeJS.ErrnoException).code ?? (err as Error).message;
+        reasons.set(why, (reasons.get(why) ?? 0) + 1);
       }
       times[k].push(performance.now() - t0);
       await sleep(-Math.log(1 - Math.random()) * thinkS * 1000);
@@ -146,6 +163,7 @@ async function main() {
     ok &&= pass;
     console.log(`${r.kind.name.padEnd(15)}${pad(String(r.requests), 9)}${pad(r.rps.toFixed(1), 7)}${pad(r.p50.toFixed(0), 7)}${pad(r.p95.toFixed(0), 7)}${pad(r.p99.toFixed(0), 7)}${pad(String(r.errors), 7)}  ≤ ${r.kind.target} ms ${pass ? 'PASS' : 'FAIL'}`);
   }
+  if (reasons.size) console.log(`errors: ${reasonList()}`);
   const total = rows.reduce((a, r) => a + r.rps, 0);
   console.log(`all kinds: ${total.toFixed(1)} requests a second`);
   if (pids.length) {
@@ -163,7 +181,7 @@ async function main() {
       const rps = step.reduce((a, r) => a + r.rps, 0);
       const p95 = percentile(all, 95);
       const errors = step.reduce((a, r) => a + r.errors, 0);
-      console.log(`  ${Math.round(VISITORS * factor)} visitors: served ${rps.toFixed(0)} req/s, p95 ${p95.toFixed(0)} ms, errors ${errors}`);
+      console.log(`  ${Math.round(VISITORS * factor)} visitors: served ${rps.toFixed(0)} req/s, p95 ${p95.toFixed(0)} ms, errors ${errors}${errors ? ` (${reasonList()})` : ''}`);
       if (p95 > SATURATION_P95_MS || errors > 0) break;
       saturation = rps;
     }
