@@ -59,7 +59,7 @@ export function cachedAnswer<T extends object>(key: string, compute: () => Promi
   return answers.keep(key, () => compute().then(deepFreeze));
 }
 
-/** How many answers are kept now (for tests and the load check). */
+/** How many answers this process keeps now (for tests). */
 export function keptAnswers(): number {
   return answers.entries.size;
 }
