@@ -14,6 +14,7 @@ import pg from 'pg';
 import { percentile } from './bench-support';
 import { signIn } from './lib/sign-in';
 import { curveCsv, metadataFor } from '../tests/integration/submissions-fixtures';
+import { pool } from './lib/pool';
 
 function arg(name: string, fallback: string): string {
   const i = process.argv.indexOf(`--${name}`);
@@ -36,17 +37,6 @@ function curveOfSize(seed: number): Buffer {
 
 type Timing = { total: number; steps: Record<string, number> };
 
-async function pool<T>(n: number, jobs: (() => Promise<T>)[]): Promise<T[]> {
-  const out: T[] = [];
-  let next = 0;
-  await Promise.all(Array.from({ length: n }, async () => {
-    while (next < jobs.length) {
-      const k = next++;
-      out[k] = await jobs[k]();
-    }
-  }));
-  return out;
-}
 
 async function timed<T>(steps: Record<string, number>, name: string, fn: () => Promise<T>): Promise<T> {
   const t = performance.now();
@@ -129,13 +119,13 @@ async function main() {
 
   try {
     let t = performance.now();
-    const puts = await pool(concurrency, bodies.slice(0, files).map((b, i) => () => bucketOnly(b, i)));
+    const puts = await pool(bodies.slice(0, files).map((b, i) => () => bucketOnly(b, i)), concurrency);
     report('bucket alone (presign + PUT, nothing submitted; the sweep drops these)', puts, (performance.now() - t) / 1000);
     t = performance.now();
-    const browser = await pool(concurrency, bodies.slice(0, files).map((b, i) => () => browserWay(b, i)));
+    const browser = await pool(bodies.slice(0, files).map((b, i) => () => browserWay(b, i)), concurrency);
     report('browser way (presign → PUT to the bucket → submit)', browser, (performance.now() - t) / 1000);
     t = performance.now();
-    const api = await pool(concurrency, bodies.slice(files).map((b, i) => () => apiWay(b, i)));
+    const api = await pool(bodies.slice(files).map((b, i) => () => apiWay(b, i)), concurrency);
     report('API way (multipart to the server, which puts it in the bucket)', api, (performance.now() - t) / 1000);
   } finally {
     if (process.env.DATABASE_URL && made.length) {

@@ -381,11 +381,14 @@ export function searchCurves(actor: Actor | null, p: SearchParams, options: Sear
     if (actor) return answer(actor, p, options);
     // a signed-out visitor's answer is the public catalogue's, the same for everyone: kept under its version
     const version = await currentVersion();
-    return cachedAnswer(`${version}\n${options.memory ?? ''}\n${JSON.stringify(p)}`, () => answer(null, p, options));
+    return cachedAnswer(`${version}\n${options.memory ?? ''}\n${JSON.stringify(p)}`, () => answer(null, p, { ...options, version }));
   });
 }
 
-async function answer(actor: Actor | null, p: SearchParams, options: SearchOptions): Promise<SearchResult> {
+/** How one search runs: the caller's options, and the catalogue version when it has been read already (a signed-out visitor's). */
+type RunOptions = SearchOptions & { version?: string };
+
+async function answer(actor: Actor | null, p: SearchParams, options: RunOptions): Promise<SearchResult> {
   const read = readSearchWords(p);
   const result = await runSearch(actor, read.params, options);
   const out: SearchResult = p.q ? { ...result, understood: read.understood, words: read.words } : result;
@@ -393,7 +396,7 @@ async function answer(actor: Actor | null, p: SearchParams, options: SearchOptio
   return out;
 }
 
-async function runSearch(actor: Actor | null, p: SearchParams, options: SearchOptions): Promise<SearchResult> {
+async function runSearch(actor: Actor | null, p: SearchParams, options: RunOptions): Promise<SearchResult> {
   if (p.sort === 'contrast' && hasFitness(p)) return searchByContrast(actor, p, options);
   if (options.memory !== false && hasFitness(p) && copyServes() && (await answeredInMemory(actor, p))) {
     const fromCopy = await searchCopy(actor, p);
@@ -407,7 +410,9 @@ async function runSearch(actor: Actor | null, p: SearchParams, options: SearchOp
     // process or app server moves the version, so a kept count never outlives the catalogue it counted
     actor
       ? countGroups(facetSql, facetBind)
-      : currentVersion().then((v) => cachedCounts(`${v}\n${facetSql}\n${JSON.stringify(facetBind)}`, () => countGroups(facetSql, facetBind))),
+      : (options.version !== undefined ? Promise.resolve(options.version) : currentVersion()).then((v) =>
+          cachedCounts(`${v}\n${facetSql}\n${JSON.stringify(facetBind)}`, () => countGroups(facetSql, facetBind)),
+        ),
   ]);
   return assemble(p, pl, { sort, dir, page, pageSize }, rows, groups);
 }
@@ -417,7 +422,7 @@ async function runSearch(actor: Actor | null, p: SearchParams, options: SearchOp
  * throughput, each given its exact contrast gain, ordered and paged. The facets
  * and total are those of the whole search.
  */
-async function searchByContrast(actor: Actor | null, p: SearchParams & { fNumber: number }, options: SearchOptions): Promise<SearchResult> {
+async function searchByContrast(actor: Actor | null, p: SearchParams & { fNumber: number }, options: RunOptions): Promise<SearchResult> {
   const pageSize = p.pageSize ?? DEFAULT_PAGE_SIZE;
   const page = p.page ?? 1;
   const dir = p.dir ?? DEFAULT_DIR.contrast;

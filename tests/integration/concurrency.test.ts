@@ -6,6 +6,8 @@ import { closeSequelize } from '@/db/connection';
 import { db } from '@/db/models';
 import { newSecret, sha256Hex } from '@/lib/auth/tokens';
 import { curveCsv, metadataFor, singleCurve, submissionForm, type Upload } from './submissions-fixtures';
+import { pool } from '@/scripts/lib/pool';
+import { createRng } from '@/seeds/world/prng';
 
 // Many people at once on the same rows. What must hold whatever the interleaving:
 // every submission is decided exactly once, and every upload is stored whole or refused whole.
@@ -23,25 +25,12 @@ async function tokenClient(role: 'contributor' | 'moderator') {
   return { ...user, client };
 }
 
-/** Runs every task with at most `width` in flight. */
-async function pool<T>(tasks: (() => Promise<T>)[], width: number): Promise<T[]> {
-  const out: T[] = new Array(tasks.length);
-  let next = 0;
-  await Promise.all(Array.from({ length: width }, async () => {
-    while (next < tasks.length) {
-      const i = next++;
-      out[i] = await tasks[i]();
-    }
-  }));
-  return out;
-}
-
+/** A seeded Fisher–Yates shuffle (the demo world's generator), so each moderator decides in an order of their own. */
 function shuffled<T>(items: T[], seed: number): T[] {
   const a = [...items];
-  let s = seed;
+  const rng = createRng(seed);
   for (let i = a.length - 1; i > 0; i--) {
-    s = (s * 1103515245 + 12345) % 2147483648;
-    const j = s % (i + 1);
+    const j = rng.int(0, i);
     [a[i], a[j]] = [a[j], a[i]];
   }
   return a;
